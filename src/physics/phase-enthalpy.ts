@@ -11,7 +11,7 @@
  * These are single-phase values: never add a latent-heat source on top of an "apparent" c_p.
  */
 import type { ValidityWarning } from "./composition.js";
-import { AUSTENITE, BAINITE, FERRITE, MARTENSITE, PEARLITE, PHASES } from "./phases.js";
+import { AUSTENITE, BAINITE, FERRITE, PEARLITE, PHASES } from "./phases.js";
 import {
   IRON_MOLAR_MASS_kg_mol,
   enthalpyBcc_Jmol,
@@ -80,6 +80,13 @@ function storedFraction(value: number | undefined, fallback: number, name: strin
   return f;
 }
 
+/** Stored-energy fraction of bainite or martensite from the options or the defaults [–]. */
+function displaciveStoredFraction(phase: number, opts: PhaseThermoOptions | undefined): number {
+  return phase === BAINITE
+    ? storedFraction(opts?.bainiteStoredFraction, DEFAULT_BAINITE_STORED_FRACTION, "bainiteStoredFraction")
+    : storedFraction(opts?.martensiteStoredFraction, DEFAULT_MARTENSITE_STORED_FRACTION, "martensiteStoredFraction");
+}
+
 function checkPhase(phase: number): void {
   if (!(phase >= 0 && phase < PHASES.length && Number.isInteger(phase))) throw new RangeError(`unknown phase index ${phase}`);
 }
@@ -99,10 +106,7 @@ export function phaseEnthalpy_J_kg(phase: number, T_K: number, opts?: PhaseTherm
   if (phase === AUSTENITE) return austeniteEnthalpy_J_kg(T_K);
   if (phase === FERRITE) return ferriteEnthalpy_J_kg(T_K);
   if (phase === PEARLITE) return ferriteEnthalpy_J_kg(T_K) - PEARLITE_ENTHALPY_OFFSET_J_kg;
-  const s =
-    phase === BAINITE
-      ? storedFraction(opts?.bainiteStoredFraction, DEFAULT_BAINITE_STORED_FRACTION, "bainiteStoredFraction")
-      : storedFraction(opts?.martensiteStoredFraction, DEFAULT_MARTENSITE_STORED_FRACTION, "martensiteStoredFraction");
+  const s = displaciveStoredFraction(phase, opts);
   const hGamma = austeniteEnthalpy_J_kg(T_K);
   return hGamma - (1 - s) * (hGamma - ferriteEnthalpy_J_kg(T_K));
 }
@@ -119,10 +123,7 @@ export function phaseSpecificHeat_J_kgK(phase: number, T_K: number, opts?: Phase
   if (phase === FERRITE || phase === PEARLITE) return cAlpha;
   const cGamma = heatCapacityFcc_JmolK(T_K) / IRON_MOLAR_MASS_kg_mol;
   if (phase === AUSTENITE) return cGamma;
-  const s =
-    phase === BAINITE
-      ? storedFraction(opts?.bainiteStoredFraction, DEFAULT_BAINITE_STORED_FRACTION, "bainiteStoredFraction")
-      : storedFraction(opts?.martensiteStoredFraction, DEFAULT_MARTENSITE_STORED_FRACTION, "martensiteStoredFraction");
+  const s = displaciveStoredFraction(phase, opts);
   return cGamma - (1 - s) * (cGamma - cAlpha);
 }
 
