@@ -1,0 +1,202 @@
+/**
+ * The case file: one JSON document describing the piece, the steel, the cooling and the numerics.
+ * Units are declared once in every key name (`thickness_mm`, `htc_W_m2K`, `T_C`) and converted to SI
+ * on load (see resolve-case.ts). Unknown keys are errors (strict objects), so a typo never
+ * silently falls back to a default.
+ *
+ * Messages name the expected unit or range; the loader prefixes the file and the field path.
+ */
+import { z } from "zod";
+import { ELEMENTS } from "../physics/composition.js";
+
+const num = (unit: string) => z.number({ error: `expected a number [${unit}]` }).refine(Number.isFinite, `expected a finite number [${unit}]`);
+const positive = (unit: string) => num(unit).refine((v) => v > 0, `must be > 0 ${unit}`);
+const nonNegative = (unit: string) => num(unit).refine((v) => v >= 0, `must be ≥ 0 ${unit}`);
+/** A temperature in °C that a steel-cooling case can meaningfully hold. */
+const celsius = num("°C").refine((v) => v > -273.15 && v <= 2000, "must lie between −273.15 and 2000 °C");
+
+/** A constant, or `[T_C, value]` pairs with strictly increasing temperatures (piecewise linear). */
+const propertyTable = (unit: string, min: number) =>
+  z.union([
+    num(unit).refine((v) => v > min, `must be > ${min} ${unit}`),
+    z
+      .array(
+        z.tuple([celsius, num(unit).refine((v) => v > min, `values must be > ${min} ${unit}`)], {
+          error: `expected [T_C, value ${unit}] pairs`,
+        }),
+        { error: `expected a number ${unit} or a table of [T_C, value] pairs` },
+      )
+      .min(1, "a table needs at least one [T_C, value] pair")
+      .refine((pairs) => pairs.every((p, i) => i === 0 || p[0] > pairs[i - 1][0]), "table temperatures must be strictly increasing (°C)"),
+  ], { error: `expected a number ${unit} or a table of [T_C, value] pairs` });
+
+/**
+ * One face's boundary condition. Accepted forms:
+ *   { htc_W_m2K, medium_C [, emissivity, surroundings_C] }  convection (plus radiation)
+ *   { emissivity, surroundings_C }                           radiation alone
+ *   { flux_W_m2 }                                            prescribed flux, positive = leaving
+ *   { insulated: true }
+ *   { surface_C }                                            prescribed surface temperature
+ */
+export const faceSchema = z
+  .strictObject({
+    htc_W_m2K: nonNegative("W/(m²·K)").optional(),
+    medium_C: celsius.optional(),
+    emissivity: num("-").refine((v) => v >= 0 && v <= 1, "must lie in [0, 1]").optional(),
+    surroundings_C: celsius.optional(),
+    flux_W_m2: num("W/m²").optional(),
+    insulated: z.literal(true, { error: "expected true" }).optional(),
+    surface_C: celsius.optional(),
+  })
+  .superRefine((f, ctx) => {
+    const has = (k: keyof typeof f) => f[k] !== undefined;
+    const exclusive = ["flux_W_m2", "insulated", "surface_C"] as const;
+    const chosen = exclusive.filter(has);
+    const conv = has("htc_W_m2K") || has("medium_C") || has("emissivity") || has("surroundings_C");
+    if (chosen.length > 1 || (chosen.length === 1 && conv)) {
+      ctx.addIssue({ code: "custom", message: "give one face form: convection/radiation, flux_W_m2, insulated or surface_C" });
+      return;
+    }
+    if (chosen.length === 1) return;
+    if (has("htc_W_m2K") !== has("medium_C")) {
+      ctx.addIssue({ code: "custom", message: "convection needs both htc_W_m2K [W/(m²·K)] and medium_C [°C]" });
+    }
+    if (!has("htc_W_m2K") && !has("emissivity")) {
+      ctx.addIssue({ code: "custom", message: "expected htc_W_m2K with medium_C, emissivity with surroundings_C, flux_W_m2, insulated or surface_C" });
+    }
+    if (!has("htc_W_m2K") && has("emissivity") && !has("surroundings_C")) {
+      ctx.addIssue({ code: "custom", path: ["surroundings_C"], message: "radiation alone needs surroundings_C [°C]" });
+    }
+  });
+export type FaceInput = z.infer<typeof faceSchema>;
+
+export const stageSchema = z.strictObject({
+  duration_s: positive("s"),
+  label: z.string().optional(),
+  top: faceSchema,
+  bottom: faceSchema,
+});
+
+const compositionSchema = z
+  .strictObject(Object.fromEntries(ELEMENTS.map((e) => [e, nonNegative("wt%").optional()])) as unknown as Record<(typeof ELEMENTS)[number], z.ZodOptional<z.ZodNumber>>, {
+    error: (iss) => (iss.code === "unrecognized_keys" ? `unknown element ${iss.keys.join(", ")}; known: ${ELEMENTS.join(" ")}` : "expected an object of element: wt%"),
+  })
+  .superRefine((c, ctx) => {
+    if ((c.C ?? 0) > 2) ctx.addIssue({ code: "custom", path: ["C"], message: "carbon above 2 wt% is cast iron, not steel (expected 0–2 wt%)" });
+    let sum = 0;
+    for (const v of Object.values(c)) sum += v ?? 0;
+    if (sum > 50) ctx.addIssue({ code: "custom", message: `alloying elements sum to ${sum} wt%; expected well under 50 wt%` });
+    for (const [e, v] of Object.entries(c)) if (e !== "C" && (v ?? 0) > 30) ctx.addIssue({ code: "custom", path: [e], message: "above 30 wt% is not a steel this tool models" });
+  });
+
+const kineticsCurveSchema = z
+  .strictObject({
+    start_fraction: num("-").refine((v) => v > 0 && v < 1, "must lie in (0, 1)").default(0.01),
+    finish_fraction: num("-").refine((v) => v > 0 && v < 1, "must lie in (0, 1)").default(0.99),
+    points: z
+      .array(z.strictObject({ T_C: celsius, start_s: positive("s"), finish_s: positive("s") }))
+      .min(2, "needs at least two temperatures")
+      .superRefine((pts, ctx) => {
+        pts.forEach((p, i) => {
+          if (p.finish_s <= p.start_s) ctx.addIssue({ code: "custom", path: [i, "finish_s"], message: "finish time must be after the start time (s)" });
+          if (i > 0 && p.T_C <= pts[i - 1].T_C) ctx.addIssue({ code: "custom", path: [i, "T_C"], message: "temperatures must be strictly increasing (°C)" });
+        });
+      }),
+  })
+  .refine((c) => c.finish_fraction > c.start_fraction, { message: "finish_fraction must exceed start_fraction", path: ["finish_fraction"] });
+
+const timeScaleSchema = z.strictObject({
+  ferrite: positive("-").default(1),
+  pearlite: positive("-").default(1),
+  bainite: positive("-").default(1),
+});
+
+const kineticsSchema = z.discriminatedUnion("model", [
+  z.strictObject({ model: z.literal("li1998"), time_scale: timeScaleSchema.optional() }),
+  z.strictObject({
+    model: z.literal("table"),
+    time_scale: timeScaleSchema.optional(),
+    ferrite: kineticsCurveSchema.optional(),
+    pearlite: kineticsCurveSchema.optional(),
+    bainite: kineticsCurveSchema.optional(),
+  }),
+], { error: 'expected kinetics.model "li1998" or "table"' });
+
+export const materialSchema = z
+  .strictObject({
+    conductivity_W_mK: propertyTable("W/(m·K)", 0).optional(),
+    specific_heat_J_kgK: propertyTable("J/(kg·K)", 0).optional(),
+    density_kg_m3: propertyTable("kg/m³", 0).optional(),
+    composition_wt_pct: compositionSchema.optional(),
+    austenite_grain_um: positive("µm").refine((v) => v < 5000, "must be < 5000 µm").optional(),
+    retained_strain: num("-").refine((v) => v >= 0 && v <= 1, "must lie in [0, 1]").optional(),
+    transformation: z.enum(["on", "off"], { error: 'expected "on" or "off"' }).optional(),
+    latent_heat: z.enum(["on", "off"], { error: 'expected "on" or "off"' }).optional(),
+    critical_C: z.strictObject({ Ae3: celsius.optional(), Ae1: celsius.optional(), Bs: celsius.optional(), Ms: celsius.optional() }).optional(),
+    formulas: z
+      .strictObject({
+        Ae3: z.enum(["andrews", "andrews-extended"]).optional(),
+        Bs: z.enum(["steven-haynes", "li"]).optional(),
+      })
+      .optional(),
+    kinetics: kineticsSchema.optional(),
+    stored_energy_fraction: z
+      .strictObject({
+        bainite: num("-").refine((v) => v >= 0 && v < 1, "must lie in [0, 1)").optional(),
+        martensite: num("-").refine((v) => v >= 0 && v < 1, "must lie in [0, 1)").optional(),
+      })
+      .optional(),
+  })
+  .superRefine((m, ctx) => {
+    if (!m.composition_wt_pct) {
+      for (const key of ["conductivity_W_mK", "specific_heat_J_kgK", "density_kg_m3"] as const) {
+        if (m[key] === undefined) ctx.addIssue({ code: "custom", path: [key], message: "required when no composition_wt_pct is given" });
+      }
+      for (const key of ["austenite_grain_um", "transformation", "latent_heat", "critical_C", "kinetics", "formulas", "stored_energy_fraction", "retained_strain"] as const) {
+        if (m[key] !== undefined) ctx.addIssue({ code: "custom", path: [key], message: "only meaningful with composition_wt_pct (a steel)" });
+      }
+    }
+  });
+
+export const numericsSchema = z.strictObject({
+  scheme: z.enum(["explicit", "implicit", "crank-nicolson"], { error: 'expected "explicit", "implicit" or "crank-nicolson"' }).default("crank-nicolson"),
+  cells: z
+    .number({ error: "expected a whole number of cells" })
+    .int("expected a whole number of cells")
+    .refine((v) => v >= 3, "must be at least 3 cells"),
+  time_step_s: positive("s"),
+  picard_tolerance_K: positive("K").optional(),
+  max_iterations: z.number().int().refine((v) => v >= 1 && v <= 1000, "must lie in 1–1000").optional(),
+});
+
+export const outputSchema = z.strictObject({
+  depths_mm: z.array(nonNegative("mm"), { error: "expected a list of depths in mm" }).min(1, "give at least one depth (mm)"),
+  interval_s: positive("s"),
+});
+
+export const stagesCoolingSchema = z.strictObject({
+  stages: z.array(stageSchema, { error: "expected a list of stages" }).min(1, "give at least one stage"),
+});
+
+export const caseSchema = z
+  .strictObject({
+    $schema: z.string().optional(),
+    title: z.string({ error: "expected a text title" }).min(1, "title must not be empty"),
+    product: z.strictObject({
+      thickness_mm: positive("mm").refine((v) => v <= 1000, "must be ≤ 1000 mm"),
+      initial_C: celsius,
+      width_mm: positive("mm").optional(),
+    }),
+    material: materialSchema,
+    cooling: stagesCoolingSchema,
+    numerics: numericsSchema,
+    output: outputSchema,
+  })
+  .superRefine((c, ctx) => {
+    c.output.depths_mm.forEach((d, i) => {
+      if (d > c.product.thickness_mm) ctx.addIssue({ code: "custom", path: ["output", "depths_mm", i], message: `depth ${d} mm lies outside the piece (0–${c.product.thickness_mm} mm)` });
+    });
+  });
+
+export type CaseInput = z.input<typeof caseSchema>;
+export type Case = z.output<typeof caseSchema>;

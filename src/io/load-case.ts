@@ -1,0 +1,78 @@
+/**
+ * Reads and validates a case file. Failures become one InputError naming the file, the field
+ * path and what was expected (unit or range), or the line and column of a JSON syntax error.
+ */
+import { readFileSync, statSync } from "node:fs";
+import { z } from "zod";
+import { caseSchema, type Case } from "./case-schema.js";
+import { InputError, formatPath } from "./errors.js";
+
+/** Reads a text file that must exist, be a regular file and be valid UTF-8. */
+export function readTextFile(file: string): string {
+  let st;
+  try {
+    st = statSync(file);
+  } catch {
+    throw new InputError(file, "", "file not found or not readable");
+  }
+  if (st.isDirectory()) throw new InputError(file, "", "is a folder; expected a case file (JSON)");
+  let buf: Buffer;
+  try {
+    buf = readFileSync(file);
+  } catch {
+    throw new InputError(file, "", "file not readable");
+  }
+  try {
+    return new TextDecoder("utf-8", { fatal: true }).decode(buf);
+  } catch {
+    throw new InputError(file, "", "is not valid UTF-8 text");
+  }
+}
+
+/** Parses JSON, turning a syntax error into line and column. */
+export function parseJson(file: string, text: string): unknown {
+  if (text.trim() === "") throw new InputError(file, "", "file is empty; expected a JSON case");
+  try {
+    return JSON.parse(text);
+  } catch (e) {
+    const msg = e instanceof Error ? e.message : String(e);
+    const m = /position (\d+)/.exec(msg);
+    let where = "";
+    if (m) {
+      const pos = Number(m[1]);
+      const before = text.slice(0, pos);
+      const line = before.split("\n").length;
+      const column = pos - before.lastIndexOf("\n");
+      where = ` at line ${line}, column ${column}`;
+    }
+    const reason = msg.replace(/\s*in JSON at position \d+.*$/s, "").replace(/^.*?JSON\.parse: /, "");
+    throw new InputError(file, "", `malformed JSON${where}: ${reason}`);
+  }
+}
+
+/** Turns the first zod issue into an InputError. */
+export function zodToInputError(file: string, error: z.ZodError): InputError {
+  const issue = error.issues[0];
+  let path = issue.path;
+  let message = issue.message;
+  if (issue.code === "unrecognized_keys") {
+    const keys = (issue as { keys: string[] }).keys;
+    path = [...issue.path, keys[0]];
+    message = message.startsWith("unknown element") ? message : `unknown key "${keys[0]}"; check the spelling against the case format`;
+  } else if (issue.code === "invalid_type" && /received undefined/.test(message)) {
+    message = `missing; ${message.replace(/,?\s*received undefined/, "")}`;
+  } else if (issue.code === "invalid_type" && (issue as { input?: unknown }).input === undefined) {
+    message = `missing; ${message}`;
+  }
+  return new InputError(file, formatPath(path) || "(top level)", message);
+}
+
+export function validateCase(file: string, data: unknown): Case {
+  const parsed = caseSchema.safeParse(data);
+  if (!parsed.success) throw zodToInputError(file, parsed.error);
+  return parsed.data;
+}
+
+export function loadCase(file: string): Case {
+  return validateCase(file, parseJson(file, readTextFile(file)));
+}

@@ -1,0 +1,155 @@
+/**
+ * `recalesce run`: load, validate, simulate, write the result folder atomically.
+ */
+import { loadCase } from "./load-case.js";
+import { resolveCase, type ResolvedCase } from "./resolve-case.js";
+import { simulate, type SimulationResult } from "../model/simulate.js";
+import { ResultFolder, type TextStream } from "./result-folder.js";
+import { DECIMALS, decimalsForColumn, fixed, round, significant } from "./format.js";
+import { SAFETY_NOTICE } from "./safety.js";
+import { KELVIN } from "../model/scenario.js";
+import { PHASES } from "../physics/phases.js";
+import type { Case } from "./case-schema.js";
+
+export interface RunOutcome {
+  readonly summary: Record<string, unknown>;
+  readonly result: SimulationResult;
+  readonly warnings: string[];
+}
+
+/** Temperature [°C] at a depth [m] by linear interpolation between nodes. */
+export function temperatureAt_C(result: SimulationResult, depth_m: number): number {
+  const s = result.solver;
+  const u = depth_m / s.dx_m;
+  const i = Math.min(Math.floor(u), s.nodes - 2);
+  const f = u - i;
+  return s.T[i] + f * (s.T[i + 1] - s.T[i]) - KELVIN;
+}
+
+/** Phase fractions at a depth [m], linearly interpolated between nodes. */
+export function fractionsAt(result: SimulationResult, depth_m: number): Record<string, number> {
+  const s = result.solver;
+  const u = depth_m / s.dx_m;
+  const i = Math.min(Math.floor(u), s.nodes - 2);
+  const f = u - i;
+  const out: Record<string, number> = {};
+  for (const p of ["ferrite", "pearlite", "bainite", "martensite", "austenite"] as const) {
+    const X = s.fractions[PHASES.indexOf(p)];
+    out[p] = round(X[i] + f * (X[i + 1] - X[i]), DECIMALS.fraction);
+  }
+  return out;
+}
+
+/** Mass (volume) averaged phase fractions of the final state. */
+export function meanFractions(result: SimulationResult): Record<string, number> {
+  const s = result.solver;
+  const out: Record<string, number> = {};
+  if (s.fractions.length !== PHASES.length) return out;
+  for (const p of ["ferrite", "pearlite", "bainite", "martensite", "austenite"] as const) {
+    const X = s.fractions[PHASES.indexOf(p)];
+    let sum = 0;
+    for (let i = 0; i < s.nodes; i++) sum += s.width[i] * X[i];
+    out[p] = round(sum / s.thickness_m, DECIMALS.fraction);
+  }
+  return out;
+}
+
+export function buildSummary(c: Case, resolved: ResolvedCase, result: SimulationResult, warnings: string[]): Record<string, unknown> {
+  const s = result.solver;
+  const L = s.thickness_m;
+  const T = (d: number) => round(temperatureAt_C(result, d), DECIMALS.T_C);
+  const dH = s.enthalpy_J_m2() - s.initialEnthalpy_J_m2;
+  const summary: Record<string, unknown> = {
+    title: c.title,
+    caution: SAFETY_NOTICE,
+    end_time_s: round(result.end_s, DECIMALS.time_s),
+    final: {
+      T_C: { top: T(0), centre: T(L / 2), bottom: T(L), mean: round(s.meanTemperature_K() - KELVIN, DECIMALS.T_C) },
+      ...(s.fractions.length > 1 ? { phases: meanFractions(result) } : {}),
+    },
+    energy: {
+      relative_error: significant(s.ledgerError(), 3),
+      enthalpy_change_J_m2: significant(dH),
+      heat_out_top_J_m2: significant(s.heatOutTop_J_m2),
+      heat_out_bottom_J_m2: significant(s.heatOutBottom_J_m2),
+    },
+    numerics: {
+      scheme: resolved.scenario.numerics.scheme,
+      cells: resolved.scenario.numerics.cells,
+      time_step_s: resolved.scenario.numerics.dt_s,
+      steps: s.stats.steps,
+      sub_steps: s.stats.substeps,
+      picard_iterations: s.stats.iterations,
+      max_iterations_in_a_step: s.stats.maxIterationsInStep,
+      unconverged_steps: s.stats.unconvergedSteps,
+      picard_tolerance_K: resolved.scenario.numerics.tolerance_K,
+    },
+    depths: result.depthRecords.map((r) => ({
+      depth_mm: Number(r.label),
+      recalescence_K: round(r.recalescence_K, DECIMALS.K),
+      recalescence_time_s: r.recalescenceTime_s === null ? null : round(r.recalescenceTime_s, DECIMALS.time_s),
+      ...(s.fractions.length > 1
+        ? {
+            phases: fractionsAt(result, r.depth_m),
+            transformation_start: r.start ? { time_s: round(r.start.time_s, DECIMALS.time_s), T_C: round(r.start.T_C, DECIMALS.T_C) } : null,
+            transformation_finish: r.finish ? { time_s: round(r.finish.time_s, DECIMALS.time_s), T_C: round(r.finish.T_C, DECIMALS.T_C) } : null,
+          }
+        : {}),
+    })),
+    warnings,
+  };
+  return summary;
+}
+
+function csvHeader(columns: string[]): string {
+  return columns.join(",") + "\n";
+}
+
+/** Writes the final through-thickness profile, one row per node. */
+function profileCsv(result: SimulationResult): string {
+  const s = result.solver;
+  const transforming = s.fractions.length > 1;
+  const cols = ["depth_mm", "T_C"];
+  if (transforming) cols.push("ferrite", "pearlite", "bainite", "martensite", "austenite");
+  let out = csvHeader(cols);
+  for (let i = 0; i < s.nodes; i++) {
+    const parts = [fixed(i * s.dx_m * 1000, 4), fixed(s.T[i] - KELVIN, DECIMALS.T_C)];
+    if (transforming) for (const p of ["ferrite", "pearlite", "bainite", "martensite", "austenite"] as const) parts.push(fixed(s.fractions[PHASES.indexOf(p)][i], DECIMALS.fraction));
+    out += parts.join(",") + "\n";
+  }
+  return out;
+}
+
+/** Runs a case file and writes DIR/summary.json, DIR/history.csv and DIR/profile.csv. */
+export function runCaseFile(file: string, outDir: string): RunOutcome {
+  const c = loadCase(file);
+  const resolved = resolveCase(file, c);
+  const folder = new ResultFolder(outDir);
+  try {
+    const history: TextStream = folder.stream("history.csv");
+    let decimals: number[] = [];
+    const sink = {
+      row(time_s: number, values: Float64Array) {
+        let line = fixed(time_s, DECIMALS.time_s);
+        for (let q = 0; q < values.length; q++) line += "," + fixed(values[q], decimals[q]);
+        history.write(line + "\n");
+      },
+    };
+    const columnsProbe = resolved.steel ? resolved.steel.historyColumns(resolved.scenario) : null;
+    const cols = columnsProbe ?? [...resolved.scenario.output.depthLabels.map((d) => `T_${d}mm_C`), "T_mean_C"];
+    decimals = cols.map(decimalsForColumn);
+    history.write(csvHeader(["time_s", ...cols]));
+    const result = simulate(resolved.scenario, sink);
+    history.close();
+    const warnings = resolved.steel ? resolved.steel.warnings.slice() : [];
+    const summary = buildSummary(c, resolved, result, warnings);
+    if (resolved.steel) resolved.steel.extendSummary(summary, result);
+    folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
+    folder.writeFile("profile.csv", profileCsv(result));
+    folder.commit();
+    return { summary, result, warnings };
+  } catch (e) {
+    folder.abort();
+    throw e;
+  }
+}
