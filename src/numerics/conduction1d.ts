@@ -123,6 +123,8 @@ export class ThroughThicknessSolver {
   private readonly c: Float64Array;
   private readonly d: Float64Array;
   private readonly scratch: Float64Array;
+  private readonly Eiter: Float64Array; // mixture enthalpy at the previous iterate (secant slope)
+  private readonly Titer: Float64Array; // previous iterate
   private lastDt = 0;
 
   constructor(o: SolverOptions) {
@@ -169,6 +171,8 @@ export class ThroughThicknessSolver {
     this.c = f();
     this.d = f();
     this.scratch = f();
+    this.Eiter = f();
+    this.Titer = f();
     this.evaluate(this.T, this.fractions);
     this.commitEnthalpy();
     let H = 0;
@@ -281,6 +285,24 @@ export class ThroughThicknessSolver {
       const E = this.E;
       const C = this.C;
       const k = this.k;
+      // With phase evolution the fractions move with T*, so E(T*, X(T*)) changes faster than C
+      // says: from the second iterate on, use the secant slope of E over the last two iterates
+      // (never below C) as the Jacobian. This only speeds convergence; the fixed point is the same.
+      if (evolution && iterations > 1) {
+        const Eiter = this.Eiter;
+        const Titer = this.Titer;
+        for (let i = 0; i < n; i++) {
+          const dT = Tstar[i] - Titer[i];
+          if (dT > 1e-9 || dT < -1e-9) {
+            const slope = (E[i] - Eiter[i]) / dT;
+            if (slope > C[i]) C[i] = slope < 1e3 * C[i] ? slope : 1e3 * C[i];
+          }
+        }
+      }
+      if (evolution) {
+        this.Eiter.set(E);
+        this.Titer.set(Tstar);
+      }
       // Assemble rows.
       for (let i = 0; i < n; i++) {
         const cap = (width[i] * C[i]) / dt;
@@ -332,10 +354,13 @@ export class ThroughThicknessSolver {
     this.Tprev.set(T);
     if (evolution) evolution.accept();
     this.evaluate(Tnew, this.fractions);
+    const anyFixed = top.kind === "fixed" || bottom.kind === "fixed";
     const Eoldstep = this.scratch; // reuse: old enthalpy needed for fixed-temperature faces
-    Eoldstep.set(this.Eold);
     const condOldPrev = this.a; // reuse: old conduction needed for fixed-temperature faces
-    condOldPrev.set(condOld);
+    if (anyFixed) {
+      Eoldstep.set(this.Eold);
+      condOldPrev.set(condOld);
+    }
     T.set(Tnew);
     this.commitEnthalpy();
 
@@ -376,6 +401,10 @@ export class ThroughThicknessSolver {
 
   /** Mixture E, C, k at temperatures Tk with fractions X (tables interpolated linearly). */
   private evaluate(Tk: Float64Array, X: Float64Array[]): void {
+    if (this.tables.phases === 1) {
+      this.evaluateSingle(Tk);
+      return;
+    }
     const tables = this.tables;
     const n = this.nodes;
     const E = this.E;
@@ -422,6 +451,40 @@ export class ThroughThicknessSolver {
       E[i] = e;
       C[i] = cap;
       k[i] = cond;
+    }
+  }
+
+  /** evaluate() for a single-phase material (no mixture loop). */
+  private evaluateSingle(Tk: Float64Array): void {
+    const tables = this.tables;
+    const n = this.nodes;
+    const E = this.E;
+    const C = this.C;
+    const k = this.k;
+    const T0 = tables.T0_K;
+    const dT = tables.dT_K;
+    const inv = 1 / dT;
+    const last = tables.n - 1;
+    const data = tables.data[0];
+    for (let i = 0; i < n; i++) {
+      const u = (Tk[i] - T0) * inv;
+      let j = Math.floor(u);
+      let f = u - j;
+      let extra = 0;
+      if (j < 0) {
+        extra = u * dT;
+        j = 0;
+        f = 0;
+      } else if (j >= last) {
+        extra = (u - last) * dT;
+        j = last - 1;
+        f = 1;
+      }
+      const o = 3 * j;
+      const cp = data[o + 1] + f * (data[o + 4] - data[o + 1]);
+      E[i] = data[o] + f * (data[o + 3] - data[o]) + extra * cp;
+      C[i] = cp;
+      k[i] = data[o + 2] + f * (data[o + 5] - data[o + 2]);
     }
   }
 }
