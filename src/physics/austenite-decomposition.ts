@@ -245,12 +245,13 @@ export class AusteniteDecomposition {
       let nF = yF[i], nP = yP[i], nB = yB[i];
 
       if (austenite > 0 && T_mid < diffusionalTop_K) {
-        const arrhenius = useLi ? Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid) : 0;
+        let arrhenius = -1; // exp(−Q/RT_mid) of Li (1998), evaluated once per node when first needed
 
         // Ferrite: Ae3 > T_mid > Bs, until pearlite starts.
         if (ferriteForms && T_mid < Ae3_K && T_mid > Bs_K && kP === 0) {
           if (nF < 1) {
             if (useLi) {
+              if (arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
               const u = Ae3_K - T_mid;
               kF += dt_s * cF0 * u * u * u * arrhenius;
               nF = liIntegralInverse(kF);
@@ -272,6 +273,7 @@ export class AusteniteDecomposition {
         if (T_mid < Ae1_K && T_mid > Bs_K && austenite > 0 && nP < 1 && (kP > 0 || this.pearliteMayStart(ferrite, T_mid))) {
           const before = nP;
           if (useLi) {
+            if (arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
             const u = Ae1_K - T_mid;
             kP += dt_s * cP0 * u * u * u * arrhenius;
             nP = liIntegralInverse(kP);
@@ -292,6 +294,7 @@ export class AusteniteDecomposition {
         if (T_mid < Bs_K && austenite > 0 && nB < 1) {
           const before = nB;
           if (useLi) {
+            if (arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
             const u = Bs_K - T_mid;
             kB += dt_s * cB0 * u * u * arrhenius;
             nB = liIntegralInverse(kB);

@@ -223,14 +223,17 @@ function hermite(values: Float64Array, slopes: Float64Array, theta: number): num
 
 /** X(θ) on the lower half, 0 ≤ θ ≤ S(1)/2. */
 function lowerHalfInverse(theta: number): number {
-  return theta < NEAR_THETA ? hermite(TABLE_U, TABLE_U_SLOPE, theta) ** (5 / 3) : hermite(TABLE_X, TABLE_X_SLOPE, theta);
+  if (theta >= NEAR_THETA) return hermite(TABLE_X, TABLE_X_SLOPE, theta);
+  const u = hermite(TABLE_U, TABLE_U_SLOPE, theta);
+  const cubeRoot = Math.cbrt(u); // u^(5/3) = u·∛u², several times faster than pow in V8
+  return u * cubeRoot * cubeRoot;
 }
 
 /**
  * X = S⁻¹(θ) [−] for θ ≥ 0: 0 at θ ≤ 0, 1 at θ ≥ S(1). Cubic Hermite interpolation of a
  * 512-interval table against θ with exact slopes (of u = X^0.6 near θ = 0, of X elsewhere), the
  * upper half by the symmetry of S; absolute error below 1e−10 in X (checked in
- * tests/li1998.test.ts). No allocation, a pow only near X = 0 or 1: fit for hot loops.
+ * tests/li1998.test.ts). No allocation, a cube root only near X = 0 or 1: fit for hot loops.
  */
 export function liIntegralInverse(theta: number): number {
   if (!(theta > 0)) return 0;
