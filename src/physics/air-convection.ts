@@ -84,12 +84,13 @@ export function sakiadisCoefficient(Pr: number): number {
 
 /** Rayleigh number Ra_L = g β |T_s − T_∞| L³/(ν α) with film properties and β = 1/T_f [-]. */
 export function rayleighNumber(T_surface_K: number, T_air_K: number, length_m: number): number {
-  const p = airPropertiesInto(0.5 * (T_surface_K + T_air_K), new Float64Array(AIR_PROPERTY_SLOTS));
-  return rayleighFrom(T_surface_K, T_air_K, length_m, p);
+  return filmRayleigh(T_surface_K, T_air_K, length_m, new Float64Array(AIR_PROPERTY_SLOTS));
 }
 
-function rayleighFrom(Ts: number, Ta: number, L: number, p: Float64Array): number {
+/** Fills `p` with the film-temperature air properties and returns Ra_L [-]. */
+function filmRayleigh(Ts: number, Ta: number, L: number, p: Float64Array): number {
   const Tf = 0.5 * (Ts + Ta);
+  airPropertiesInto(Tf, p);
   return (STANDARD_GRAVITY_m_s2 * Math.abs(Ts - Ta) * L * L * L) / (Tf * p[AIR_NU] * p[AIR_ALPHA]);
 }
 
@@ -117,10 +118,9 @@ export function horizontalPlateFlux(
   p: Float64Array,
   out: Float64Array,
 ): Float64Array {
+  const Ra = filmRayleigh(T_surface_K, T_air_K, length_m, p);
   const Tf = 0.5 * (T_surface_K + T_air_K);
-  airPropertiesInto(Tf, p);
   const dT = T_surface_K - T_air_K;
-  const Ra = rayleighFrom(T_surface_K, T_air_K, length_m, p);
   let C = 0.27;
   let n = 0.25;
   if (isUnstable(facing, T_surface_K, T_air_K)) {
@@ -150,10 +150,9 @@ export function verticalPlateFlux(
   p: Float64Array,
   out: Float64Array,
 ): Float64Array {
+  const Ra = filmRayleigh(T_surface_K, T_air_K, height_m, p);
   const Tf = 0.5 * (T_surface_K + T_air_K);
-  airPropertiesInto(Tf, p);
   const dT = T_surface_K - T_air_K;
-  const Ra = rayleighFrom(T_surface_K, T_air_K, height_m, p);
   const Pr = p[AIR_PR];
   const a = Math.pow(0.492 / Pr, 9 / 16);
   const S = Math.pow(Ra, 1 / 6) / Math.pow(1 + a, 8 / 27);
