@@ -48,28 +48,19 @@ function ramp(T0_C: number, T1_C: number, dT: number): Float64Array {
   return path;
 }
 
+/** A TTT curve from rows [T_C, start_s, finish_s] (invented demo data). */
+function tttCurve(startFraction: number, finishFraction: number, rows: ReadonlyArray<readonly [number, number, number]>): UserKineticsCurve {
+  return { startFraction, finishFraction, points: rows.map(([T_C, start_s, finish_s]) => ({ T_C, start_s, finish_s })) };
+}
+
 function transformed(model: AusteniteDecomposition, node = 0): number {
   return 1 - model.current[AUSTENITE][node];
 }
 
 describe("isothermal kinetics", () => {
   // Invented TTT data (demo only): bainite curve and ferrite curve, 1 %/99 %.
-  const bainiteCurve: UserKineticsCurve = {
-    startFraction: 0.01,
-    finishFraction: 0.99,
-    points: [
-      { T_C: 400, start_s: 8, finish_s: 300 },
-      { T_C: 500, start_s: 3, finish_s: 120 },
-    ],
-  };
-  const ferriteCurve: UserKineticsCurve = {
-    startFraction: 0.01,
-    finishFraction: 0.99,
-    points: [
-      { T_C: 650, start_s: 2, finish_s: 60 },
-      { T_C: 750, start_s: 15, finish_s: 400 },
-    ],
-  };
+  const bainiteCurve = tttCurve(0.01, 0.99, [[400, 8, 300], [500, 3, 120]]);
+  const ferriteCurve = tttCurve(0.01, 0.99, [[650, 2, 60], [750, 15, 400]]);
   const tableSetup: DecompositionSetup = {
     composition: plain045,
     astmGrainNumber: 8,
@@ -280,9 +271,9 @@ describe("state-machine contracts", () => {
         ...liSetup(plain045, critical045),
         kinetics: {
           kind: "table",
-          ferrite: { startFraction: 0.02, finishFraction: 0.98, points: [{ T_C: 600, start_s: 1, finish_s: 20 }, { T_C: 780, start_s: 30, finish_s: 900 }] },
-          pearlite: { startFraction: 0.01, finishFraction: 0.99, points: [{ T_C: 590, start_s: 0.5, finish_s: 8 }, { T_C: 720, start_s: 40, finish_s: 600 }] },
-          bainite: { startFraction: 0.01, finishFraction: 0.99, points: [{ T_C: 300, start_s: 2, finish_s: 100 }, { T_C: 580, start_s: 1, finish_s: 30 }] },
+          ferrite: tttCurve(0.02, 0.98, [[600, 1, 20], [780, 30, 900]]),
+          pearlite: tttCurve(0.01, 0.99, [[590, 0.5, 8], [720, 40, 600]]),
+          bainite: tttCurve(0.01, 0.99, [[300, 2, 100], [580, 1, 30]]),
         },
       },
     ];

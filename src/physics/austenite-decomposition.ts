@@ -102,6 +102,32 @@ function tableStep(table: JmakTable, T_K: number, clock: number, Y: number, dt_s
   out[1] = jmakGrow(Y, n, lnk, dt_s);
 }
 
+/**
+ * Advances one product's clock and normalised fraction Y by dt_s: Li additivity with the rate
+ * 1/K(T_mid) [1/s] when liRate ≥ 0, else the product's table (none: no change). Writes [clock, Y].
+ */
+function advanceProduct(liRate: number, table: JmakTable | null, T_K: number, clock: number, Y: number, dt_s: number, out: Float64Array): void {
+  if (liRate >= 0) {
+    out[0] = clock + dt_s * liRate;
+    out[1] = liIntegralInverse(out[0]);
+  } else if (table !== null) {
+    tableStep(table, T_K, clock, Y, dt_s, out);
+  } else {
+    out[0] = clock;
+    out[1] = Y;
+  }
+}
+
+/**
+ * Austenite consumed by a product whose normalised fraction rose from before to after, normalised
+ * on the austenite left to it: (after − before)/(1 − before) · austenite, at most all of it.
+ */
+function austeniteTaken(before: number, after: number, austenite: number): number {
+  if (!(after > before)) return 0;
+  const share = (after - before) / (1 - before);
+  return share < 1 ? share * austenite : austenite;
+}
+
 export class AusteniteDecomposition {
   /** Committed fractions at the start of the step, phase-major: current[phase][node]. */
   readonly current: Float64Array[];
@@ -250,16 +276,11 @@ export class AusteniteDecomposition {
         // Ferrite: Ae3 > T_mid > Bs, until pearlite starts.
         if (ferriteForms && T_mid < Ae3_K && T_mid > Bs_K && kP === 0) {
           if (nF < 1) {
-            if (useLi) {
-              if (arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
-              const u = Ae3_K - T_mid;
-              kF += dt_s * cF0 * u * u * u * arrhenius;
-              nF = liIntegralInverse(kF);
-            } else if (tableF !== null) {
-              tableStep(tableF, T_mid, kF, nF, dt_s, scratch);
-              kF = scratch[0];
-              nF = scratch[1];
-            }
+            if (useLi && arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
+            const u = Ae3_K - T_mid;
+            advanceProduct(useLi ? cF0 * u * u * u * arrhenius : -1, tableF, T_mid, kF, nF, dt_s, scratch);
+            kF = scratch[0];
+            nF = scratch[1];
           }
           const target = this.equilibriumFerrite(T_mid) * nF;
           if (target > ferrite) {
@@ -271,44 +292,26 @@ export class AusteniteDecomposition {
 
         // Pearlite: Bs < T_mid < Ae1, once the Hultgren criterion has been met.
         if (T_mid < Ae1_K && T_mid > Bs_K && austenite > 0 && nP < 1 && (kP > 0 || this.pearliteMayStart(ferrite, T_mid))) {
-          const before = nP;
-          if (useLi) {
-            if (arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
-            const u = Ae1_K - T_mid;
-            kP += dt_s * cP0 * u * u * u * arrhenius;
-            nP = liIntegralInverse(kP);
-          } else if (tableP !== null) {
-            tableStep(tableP, T_mid, kP, nP, dt_s, scratch);
-            kP = scratch[0];
-            nP = scratch[1];
-          }
-          if (nP > before) {
-            const share = (nP - before) / (1 - before);
-            const gain = share < 1 ? share * austenite : austenite;
-            pearlite += gain;
-            austenite -= gain;
-          }
+          if (useLi && arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
+          const u = Ae1_K - T_mid;
+          advanceProduct(useLi ? cP0 * u * u * u * arrhenius : -1, tableP, T_mid, kP, nP, dt_s, scratch);
+          const gain = austeniteTaken(nP, scratch[1], austenite);
+          kP = scratch[0];
+          nP = scratch[1];
+          pearlite += gain;
+          austenite -= gain;
         }
 
         // Bainite: T_mid < Bs, on what is still austenite.
         if (T_mid < Bs_K && austenite > 0 && nB < 1) {
-          const before = nB;
-          if (useLi) {
-            if (arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
-            const u = Bs_K - T_mid;
-            kB += dt_s * cB0 * u * u * arrhenius;
-            nB = liIntegralInverse(kB);
-          } else if (tableB !== null) {
-            tableStep(tableB, T_mid, kB, nB, dt_s, scratch);
-            kB = scratch[0];
-            nB = scratch[1];
-          }
-          if (nB > before) {
-            const share = (nB - before) / (1 - before);
-            const gain = share < 1 ? share * austenite : austenite;
-            bainite += gain;
-            austenite -= gain;
-          }
+          if (useLi && arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
+          const u = Bs_K - T_mid;
+          advanceProduct(useLi ? cB0 * u * u * arrhenius : -1, tableB, T_mid, kB, nB, dt_s, scratch);
+          const gain = austeniteTaken(nB, scratch[1], austenite);
+          kB = scratch[0];
+          nB = scratch[1];
+          bainite += gain;
+          austenite -= gain;
         }
       }
 
