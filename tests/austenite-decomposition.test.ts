@@ -115,6 +115,17 @@ describe("isothermal kinetics", () => {
     });
   });
 
+  it("table kinetics: no incubation and no growth outside the table's temperature span (documented choice in jmak.ts)", () => {
+    // 350 °C lies below the 400–500 °C bainite rows and above Ms = 325.8 °C: nothing may form.
+    const model = new AusteniteDecomposition(tableSetup, 1);
+    drive(model, new Float64Array(500).fill(350), 1);
+    expect(model.current[AUSTENITE][0]).toBe(1);
+    // Back inside the span the hold resumes from zero incubation (the Scheil sum did not advance):
+    // at 450 °C after 1 s nothing yet (t_s ≈ 4.9 s).
+    drive(model, [450, 450], 1);
+    expect(model.current[BAINITE][0]).toBe(0);
+  });
+
   it("Li kinetics: each product reaches X at the isothermal time τ(X) of Li et al. (1998)", () => {
     // Steps of τ(X)/1000: additivity is exact isothermally, so the only errors are S⁻¹ (< 1e−9)
     // and the round-off of 1000 summed increments (≈ 1e−13): tolerance 1e−8 in X.
