@@ -26,9 +26,14 @@ export function erf(x: number): number {
 
 /** erfc(x) for x ≥ 3 by the continued fraction (A&S 7.1.14), evaluated bottom-up. */
 function erfcLarge(x: number): number {
+  return Math.exp(-x * x) * erfcScaledLarge(x);
+}
+
+/** exp(x²)·erfc(x) for x ≥ 3 by the same continued fraction; finite where exp(x²) overflows. */
+function erfcScaledLarge(x: number): number {
   let f = 0;
   for (let n = 60; n >= 1; n--) f = (n / 2) / (x + f);
-  return Math.exp(-x * x) / Math.sqrt(Math.PI) / (x + f);
+  return 1 / Math.sqrt(Math.PI) / (x + f);
 }
 
 export function erfc(x: number): number {
@@ -79,9 +84,10 @@ export function slabTheta(Bi: number, Fo: number, xStar: number, terms = 200): n
 export function semiInfiniteConvection(x: number, t: number, h: number, k: number, alpha: number): number {
   const eta = x / (2 * Math.sqrt(alpha * t));
   const b = (h * Math.sqrt(alpha * t)) / k;
-  // exp(A)·erfc(B) can overflow separately; combine in log space where erfc is tiny.
+  // exp(A) and erfc(B) can overflow/underflow separately; for B ≥ 3 use exp(A − B²)·[exp(B²)erfc(B)]
+  // (A − B² = −η² exactly, so nothing overflows however large h is).
   const A = (h * x) / k + (h * h * alpha * t) / (k * k);
   const B = eta + b;
-  const second = B < 3 ? Math.exp(A) * erfc(B) : Math.exp(A - B * B) * (erfcLarge(B) * Math.exp(B * B));
+  const second = B < 3 ? Math.exp(A) * erfc(B) : Math.exp(A - B * B) * erfcScaledLarge(B);
   return erfc(eta) - second;
 }
