@@ -178,6 +178,98 @@ export const stagesCoolingSchema = z.strictObject({
   stages: z.array(stageSchema, { error: "expected a list of stages" }).min(1, "give at least one stage"),
 });
 
+/** Water on a zone face: header kind and flow (per header, or flux density over the zone). */
+const waterFaceSchema = z
+  .strictObject({
+    header: z.enum(["laminar", "curtain", "spray"], { error: 'expected header "laminar", "curtain" or "spray"' }),
+    flow_m3_h: nonNegative("m³/h").optional(),
+    flux_L_m2s: nonNegative("L/(m²·s)").optional(),
+    on: z.boolean({ error: "expected true or false" }).default(true),
+    impingement_m: positive("m").optional(),
+    curve: z
+      .strictObject({
+        rewetting_C: celsius.optional(),
+        critical_heat_flux_C: celsius.optional(),
+        critical_heat_flux_W_m2: positive("W/m²").optional(),
+        film_boiling_htc_W_m2K: positive("W/(m²·K)").optional(),
+        single_phase_htc_W_m2K: positive("W/(m²·K)").optional(),
+        nucleate_onset_C: celsius.optional(),
+        flux_exponent: nonNegative("-").optional(),
+        reference_flux_L_m2s: positive("L/(m²·s)").optional(),
+      })
+      .optional(),
+  })
+  .refine((w) => (w.flow_m3_h === undefined) !== (w.flux_L_m2s === undefined), { message: "give either flow_m3_h [m³/h per header] or flux_L_m2s [L/(m²·s)]" });
+
+/** A zone face: water headers, or a direct boundary condition as in a stage. */
+const zoneFaceSchema = z.union([z.strictObject({ water: waterFaceSchema }), faceSchema], {
+  error: "expected { water: {...} } or a face boundary condition (htc_W_m2K/medium_C, emissivity/surroundings_C, ...)",
+});
+
+const speedScheduleSchema = z
+  .strictObject({
+    threading_m_s: positive("m/s"),
+    acceleration_m_s2: nonNegative("m/s²").default(0),
+    max_m_s: positive("m/s"),
+    deceleration_m_s2: nonNegative("m/s²").default(0),
+    tail_m_s: positive("m/s").optional(),
+  })
+  .refine((s) => s.max_m_s >= s.threading_m_s, { message: "max_m_s must not be below threading_m_s (m/s)", path: ["max_m_s"] });
+
+export const lineSchema = z
+  .strictObject({
+    length_m: positive("m").refine((v) => v <= 2000, "must be ≤ 2000 m"),
+    speed_m_s: positive("m/s").optional(),
+    speed: speedScheduleSchema.optional(),
+    water_C: celsius.refine((v) => v > 0 && v < 100, "must be liquid water, 0–100 °C"),
+    air_C: celsius,
+    strip_width_mm: positive("mm").default(1500),
+    emissivity: num("-").refine((v) => v > 0 && v <= 1, "must lie in (0, 1]").default(0.8),
+    air_convection: z.enum(["natural", "moving-sheet", "none"], { error: 'expected "natural", "moving-sheet" or "none"' }).default("natural"),
+    htc_multiplier: positive("-").default(1),
+    banks: z
+      .array(z.strictObject({ name: z.string().min(1), multiplier: positive("-").default(1), on: z.boolean().default(true) }))
+      .default([]),
+    zones: z.array(
+      z.strictObject({
+        start_m: nonNegative("m"),
+        end_m: positive("m"),
+        bank: z.string().optional(),
+        top: zoneFaceSchema.optional(),
+        bottom: zoneFaceSchema.optional(),
+      }),
+    ),
+    pyrometers_m: z.array(nonNegative("m")).default([]),
+  })
+  .superRefine((l, ctx) => {
+    if ((l.speed_m_s === undefined) === (l.speed === undefined)) ctx.addIssue({ code: "custom", path: ["speed_m_s"], message: "give either speed_m_s [m/s] or a speed schedule" });
+    const names = new Set(l.banks.map((b) => b.name));
+    let prevEnd = -Infinity;
+    const order = l.zones.map((z, i) => ({ z, i })).sort((a, b) => a.z.start_m - b.z.start_m);
+    for (const { z, i } of order) {
+      if (z.end_m <= z.start_m) ctx.addIssue({ code: "custom", path: ["zones", i, "end_m"], message: `must exceed start_m (${z.start_m} m)` });
+      if (z.end_m > l.length_m) ctx.addIssue({ code: "custom", path: ["zones", i, "end_m"], message: `lies outside the line (0–${l.length_m} m)` });
+      if (z.start_m < prevEnd) ctx.addIssue({ code: "custom", path: ["zones", i, "start_m"], message: `overlaps the zone ending at ${prevEnd} m` });
+      prevEnd = Math.max(prevEnd, z.end_m);
+      if (z.bank !== undefined && !names.has(z.bank)) ctx.addIssue({ code: "custom", path: ["zones", i, "bank"], message: `unknown bank "${z.bank}"; declare it under banks` });
+    }
+    l.pyrometers_m.forEach((p, i) => {
+      if (p > l.length_m) ctx.addIssue({ code: "custom", path: ["pyrometers_m", i], message: `lies outside the line (0–${l.length_m} m)` });
+    });
+  });
+
+export const coilSchema = z
+  .strictObject({
+    length_m: positive("m"),
+    segments: z.number().int("expected a whole number of segments").refine((v) => v >= 1 && v <= 1000, "must lie in 1–1000"),
+    entry_C: celsius.optional(),
+    entry_csv: z.string().min(1).optional(),
+    workers: z.number().int().refine((v) => v >= 1 && v <= 64, "must lie in 1–64").optional(),
+  })
+  .refine((c) => (c.entry_C === undefined) !== (c.entry_csv === undefined), { message: "give either entry_C [°C] or entry_csv (position_m,T_C)" });
+
+export const lineCoolingSchema = z.strictObject({ line: lineSchema, coil: coilSchema.optional() });
+
 export const caseSchema = z
   .strictObject({
     $schema: z.string().optional(),
@@ -188,7 +280,7 @@ export const caseSchema = z
       width_mm: positive("mm").optional(),
     }),
     material: materialSchema,
-    cooling: stagesCoolingSchema,
+    cooling: z.union([stagesCoolingSchema, lineCoolingSchema], { error: "expected cooling.stages (a list of stages) or cooling.line (a run-out table)" }),
     numerics: numericsSchema,
     output: outputSchema,
   })

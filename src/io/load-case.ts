@@ -51,8 +51,31 @@ export function parseJson(file: string, text: string): unknown {
 }
 
 /** Turns the first zod issue into an InputError. */
+/**
+ * A union reports one issue per branch; the branch that got deepest into the input is the one the
+ * author meant, so its first issue (with the union's path prefixed) is the one to show.
+ */
+function deepestIssue(issue: z.core.$ZodIssue): z.core.$ZodIssue {
+  if (issue.code !== "invalid_union") return issue;
+  const branches = (issue as { errors?: z.core.$ZodIssue[][] }).errors ?? [];
+  let best: z.core.$ZodIssue | null = null;
+  let bestDepth = -1;
+  for (const branch of branches) {
+    if (branch.length === 0) continue;
+    const inner = deepestIssue(branch[0]);
+    // An unknown key in a branch means the input was not of that branch's form: rank it last.
+    const depth = inner.code === "unrecognized_keys" || inner.code === "invalid_type" && inner.path.length === 0 ? 0 : inner.path.length + 1;
+    if (depth > bestDepth) {
+      bestDepth = depth;
+      best = inner;
+    }
+  }
+  if (!best || bestDepth <= 1) return issue;
+  return { ...best, path: [...issue.path, ...best.path] } as z.core.$ZodIssue;
+}
+
 export function zodToInputError(file: string, error: z.ZodError): InputError {
-  const issue = error.issues[0];
+  const issue = deepestIssue(error.issues[0]);
   let path = issue.path;
   let message = issue.message;
   if (issue.code === "unrecognized_keys") {

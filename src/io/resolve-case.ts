@@ -8,6 +8,12 @@ import { buildPropertyTables, evaluateProperty } from "../numerics/property-tabl
 import { KELVIN, type MaterialModel, type Scenario, type Stage } from "../model/scenario.js";
 import { InputError } from "./errors.js";
 import { resolveSteel, type SteelSetup } from "../model/steel.js";
+import { DEFAULT_IMPINGEMENT_m, trackPoint, type LineSpec, type TrackedPoint, type ZoneFace } from "../model/line.js";
+import { SpeedProfile, constantSpeed, type SpeedSchedule } from "../model/speed.js";
+import type { WaterCurveParams } from "../physics/water-cooling.js";
+import { readTextFile } from "./load-case.js";
+import { parse as parseCsv } from "csv-parse/sync";
+import { dirname, resolve as resolvePath } from "node:path";
 
 /** Face input → boundary law. */
 export function faceLaw(f: FaceInput): FaceLaw {
@@ -29,9 +35,148 @@ export interface ResolvedCase {
   readonly scenario: Scenario;
   /** Steel description when the case has a composition. */
   readonly steel?: SteelSetup;
+  /** The run-out table and the tracked point, for line cases. */
+  readonly line?: { readonly spec: LineSpec; readonly profile: SpeedProfile; readonly point: TrackedPoint; readonly coilPosition_m: number };
 }
 
-export function resolveCase(file: string, c: Case): ResolvedCase {
+type LineInput = Extract<Case["cooling"], { line: unknown }>["line"];
+type CoilInput = NonNullable<Extract<Case["cooling"], { line: unknown }>["coil"]>;
+
+function zoneFace(f: NonNullable<LineInput["zones"][number]["top"]>, stripWidth_m: number): ZoneFace {
+  if ("water" in f && f.water) {
+    const w = f.water;
+    const zoneCurve = w.curve ?? {};
+    const overrides: Partial<WaterCurveParams> = {
+      rewetting_K: zoneCurve.rewetting_C === undefined ? undefined : zoneCurve.rewetting_C + KELVIN,
+      criticalHeatFlux_K: zoneCurve.critical_heat_flux_C === undefined ? undefined : zoneCurve.critical_heat_flux_C + KELVIN,
+      criticalHeatFlux_W_m2: zoneCurve.critical_heat_flux_W_m2,
+      filmBoilingHtc_W_m2K: zoneCurve.film_boiling_htc_W_m2K,
+      singlePhaseHtc_W_m2K: zoneCurve.single_phase_htc_W_m2K,
+      nucleateOnset_K: zoneCurve.nucleate_onset_C === undefined ? undefined : zoneCurve.nucleate_onset_C + KELVIN,
+      waterFluxExponent: zoneCurve.flux_exponent,
+      referenceWaterFlux_L_m2s: zoneCurve.reference_flux_L_m2s,
+    };
+    // flux_L_m2s is the zone-average flux density; flow_m3_h is per header over the strip width.
+    return {
+      kind: "water",
+      header: w.header,
+      flowPerWidth_m3_hm: w.flow_m3_h !== undefined ? w.flow_m3_h / stripWidth_m : Number.NaN,
+      on: w.on,
+      impingement_m: w.impingement_m ?? DEFAULT_IMPINGEMENT_m,
+      overrides,
+      ...(w.flux_L_m2s !== undefined ? { zoneFlux_L_m2s: w.flux_L_m2s } : {}),
+    } as ZoneFace;
+  }
+  const d = f as FaceInput;
+  const law = faceLaw(d);
+  if (law.kind === "fixed") return { kind: "direct", htc_W_m2K: 0, medium_K: 0, emissivity: 0, surroundings_K: 0, flux_W_m2: 0, fixed_K: law.T_K };
+  const c = law as ConvectionRadiation;
+  return { kind: "direct", htc_W_m2K: c.htc_W_m2K, medium_K: c.medium_K, emissivity: c.emissivity, surroundings_K: c.surroundings_K, flux_W_m2: c.extraFlux_W_m2, fixed_K: null };
+}
+
+/** The case's line in SI units. */
+export function lineSpec(l: LineInput): LineSpec {
+  const width = l.strip_width_mm / 1000;
+  const zones = l.zones
+    .map((z) => {
+      const fixFlux = (f: ZoneFace | null): ZoneFace | null => {
+        if (!f || f.kind !== "water") return f;
+        const zf = (f as ZoneFace & { zoneFlux_L_m2s?: number }).zoneFlux_L_m2s;
+        if (zf === undefined) return f;
+        // W̄ over the zone ⇒ flow per width = W̄·zone length·3.6 m³/(h·m).
+        return { ...f, flowPerWidth_m3_hm: (zf * (z.end_m - z.start_m) * 3600) / 1000 };
+      };
+      return {
+        start_m: z.start_m,
+        end_m: z.end_m,
+        bank: z.bank ?? null,
+        top: fixFlux(z.top ? zoneFace(z.top, width) : null),
+        bottom: fixFlux(z.bottom ? zoneFace(z.bottom, width) : null),
+      };
+    })
+    .sort((a, b) => a.start_m - b.start_m);
+  return {
+    length_m: l.length_m,
+    water_K: l.water_C + KELVIN,
+    air_K: l.air_C + KELVIN,
+    width_m: width,
+    emissivity: l.emissivity,
+    airConvection: l.air_convection,
+    htcMultiplier: l.htc_multiplier,
+    bankMultipliers: new Map(l.banks.map((b) => [b.name, b.multiplier])),
+    banksOff: new Set(l.banks.filter((b) => !b.on).map((b) => b.name)),
+    zones,
+    pyrometers_m: l.pyrometers_m,
+  };
+}
+
+export function speedSchedule(l: LineInput): SpeedSchedule {
+  if (l.speed_m_s !== undefined) return constantSpeed(l.speed_m_s);
+  const s = l.speed!;
+  return {
+    threading_m_s: s.threading_m_s,
+    acceleration_m_s2: s.acceleration_m_s2,
+    max_m_s: s.max_m_s,
+    deceleration_m_s2: s.deceleration_m_s2,
+    tail_m_s: s.tail_m_s ?? s.max_m_s,
+  };
+}
+
+/** Entry (finishing) temperature along the coil: `position_m,T_C` rows, linear in between. */
+export function readEntryProfile(caseFile: string, csvPath: string): Array<[number, number]> {
+  const file = resolvePath(dirname(caseFile), csvPath);
+  const text = readTextFile(file);
+  let rows: string[][];
+  try {
+    rows = parseCsv(text, { skip_empty_lines: true, trim: true, relax_column_count: true }) as string[][];
+  } catch (e) {
+    throw new InputError(file, "", `malformed CSV: ${(e as Error).message.split("\n")[0]}`);
+  }
+  if (rows.length < 2) throw new InputError(file, "", "expected a header `position_m,T_C` and at least one row");
+  const header = rows[0].map((h) => h.trim());
+  const ip = header.indexOf("position_m");
+  const it = header.indexOf("T_C");
+  if (ip < 0 || it < 0) throw new InputError(file, "header", "expected columns position_m,T_C");
+  const out: Array<[number, number]> = [];
+  for (let r = 1; r < rows.length; r++) {
+    const x = Number(rows[r][ip]);
+    const T = Number(rows[r][it]);
+    if (rows[r].length !== header.length || !Number.isFinite(x) || !Number.isFinite(T)) {
+      throw new InputError(file, `row ${r + 1}`, "expected two numbers: position_m [m], T_C [°C]");
+    }
+    if (T <= 0 || T > 1500) throw new InputError(file, `row ${r + 1}`, `T_C ${T} outside 0–1500 °C`);
+    if (out.length && x <= out[out.length - 1][0]) throw new InputError(file, `row ${r + 1}`, "position_m must increase from row to row (m)");
+    out.push([x, T]);
+  }
+  return out;
+}
+
+/** One tracked segment of a coil. */
+export interface CoilSegment {
+  readonly index: number;
+  /** Distance of the segment centre from the head [m] */
+  readonly position_m: number;
+  readonly entry_C: number;
+}
+
+export function coilSegments(file: string, coil: CoilInput): CoilSegment[] {
+  const profile = coil.entry_csv ? readEntryProfile(file, coil.entry_csv) : null;
+  const segs: CoilSegment[] = [];
+  for (let k = 0; k < coil.segments; k++) {
+    const x = ((k + 0.5) * coil.length_m) / coil.segments;
+    segs.push({ index: k, position_m: x, entry_C: profile ? evaluateProperty(profile, x) : coil.entry_C! });
+  }
+  return segs;
+}
+
+export interface PointOptions {
+  /** Distance of the tracked point from the head of the coil [m] (line cases). */
+  readonly coilPosition_m?: number;
+  /** Entry temperature override [°C] (coil segments). */
+  readonly entry_C?: number;
+}
+
+export function resolveCase(file: string, c: Case, options: PointOptions = {}): ResolvedCase {
   let material: MaterialModel;
   let steel: SteelSetup | undefined;
   if (c.material.composition_wt_pct) {
@@ -54,19 +199,37 @@ export function resolveCase(file: string, c: Case): ResolvedCase {
     );
     material = { tables, latentHeat: true };
   }
-  const stages: Stage[] = c.cooling.stages.map((s, i) => ({
-    duration_s: s.duration_s,
-    top: faceLaw(s.top),
-    bottom: faceLaw(s.bottom),
-    label: s.label ?? `stage ${i + 1}`,
-  }));
+  let stages: Stage[];
+  let line: ResolvedCase["line"];
+  if ("stages" in c.cooling) {
+    stages = c.cooling.stages.map((s, i) => ({
+      duration_s: s.duration_s,
+      top: faceLaw(s.top),
+      bottom: faceLaw(s.bottom),
+      label: s.label ?? `stage ${i + 1}`,
+    }));
+  } else {
+    const l = c.cooling.line;
+    const spec = lineSpec(l);
+    const coilLength = c.cooling.coil?.length_m ?? 0;
+    const profile = new SpeedProfile(speedSchedule(l), l.length_m, coilLength);
+    const coilPosition_m = options.coilPosition_m ?? 0;
+    for (const z of spec.zones) {
+      for (const f of [z.top, z.bottom]) {
+        if (f && f.kind === "water" && !(f.flowPerWidth_m3_hm >= 0)) throw new InputError(file, "cooling.line.zones", "water needs flow_m3_h or flux_L_m2s");
+      }
+    }
+    const point = trackPoint(spec, profile, coilPosition_m);
+    stages = point.stages;
+    line = { spec, profile, point, coilPosition_m };
+  }
   if (c.numerics.time_step_s > stages.reduce((s, st) => s + st.duration_s, 0)) {
     throw new InputError(file, "numerics.time_step_s", "is longer than the whole cooling; expected a step shorter than the total duration (s)");
   }
   const scenario: Scenario = {
     title: c.title,
     thickness_m: c.product.thickness_mm / 1000,
-    initial_K: c.product.initial_C + KELVIN,
+    initial_K: (options.entry_C ?? c.product.initial_C) + KELVIN,
     material,
     stages,
     numerics: {
@@ -82,5 +245,5 @@ export function resolveCase(file: string, c: Case): ResolvedCase {
       interval_s: c.output.interval_s,
     },
   };
-  return { scenario, steel };
+  return { scenario, steel, line };
 }

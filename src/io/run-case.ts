@@ -120,6 +120,66 @@ function profileCsv(result: SimulationResult): string {
   return out;
 }
 
+/** Pyrometer readings (top surface) of a line run [°C], in the order of the line's pyrometers. */
+export interface LineReadings {
+  readonly pyrometers_C: number[];
+}
+
+/**
+ * Simulates one resolved case (one strip point), streaming history rows as text to `write`
+ * (header first). Returns the result, the summary object and the pyrometer readings.
+ */
+export function simulateResolved(
+  c: Case,
+  resolved: ResolvedCase,
+  write?: (text: string) => void,
+): { result: SimulationResult; summary: Record<string, unknown>; readings: LineReadings; warnings: string[] } {
+  const cols = resolved.steel ? resolved.steel.historyColumns(resolved.scenario) : [...resolved.scenario.output.depthLabels.map((d) => `T_${d}mm_C`), "T_mean_C"];
+  const decimals = cols.map(decimalsForColumn);
+  const point = resolved.line?.point;
+  let sink;
+  if (write) {
+    write(csvHeader(point ? ["time_s", "position_m", ...cols] : ["time_s", ...cols]));
+    sink = {
+      row(time_s: number, values: Float64Array) {
+        let line = fixed(time_s, DECIMALS.time_s);
+        if (point) line += "," + fixed(point.positionAt(time_s), DECIMALS.position_m);
+        for (let q = 0; q < values.length; q++) line += "," + fixed(values[q], decimals[q]);
+        write(line + "\n");
+      },
+    };
+  }
+  const readings: LineReadings = { pyrometers_C: point ? point.pyrometersAtEntry.map(() => 0) : [] };
+  if (point) for (const i of point.pyrometersAtEntry) readings.pyrometers_C[i] = resolved.scenario.initial_K - KELVIN;
+  // Mean-temperature drop while under water, for the mean cooling rate under water.
+  let waterDrop_K = 0;
+  let stageStartMean_K = resolved.scenario.initial_K;
+  const onStageEnd = point
+    ? (k: number, solver: SimulationResult["solver"]) => {
+        for (const i of point.pyrometerAfterStage[k]) readings.pyrometers_C[i] = solver.T[0] - KELVIN;
+        const mean = solver.meanTemperature_K();
+        if (point.stageWet[k]) waterDrop_K += stageStartMean_K - mean;
+        stageStartMean_K = mean;
+      }
+    : undefined;
+  const result = simulate(resolved.scenario, sink, undefined, onStageEnd);
+  const warnings = resolved.steel ? resolved.steel.warnings.slice() : [];
+  const summary = buildSummary(c, resolved, result, warnings);
+  if (resolved.steel) resolved.steel.extendSummary(summary, result);
+  if (point && resolved.line) {
+    const final = (summary.final as { T_C: Record<string, number> }).T_C;
+    summary.coiling = { T_C: { ...final } };
+    summary.pyrometers = resolved.line.spec.pyrometers_m.map((x, i) => ({ position_m: x, T_C: round(readings.pyrometers_C[i], DECIMALS.T_C) }));
+    summary.line = {
+      length_m: resolved.line.spec.length_m,
+      time_on_table_s: round(point.tableTime_s, DECIMALS.time_s),
+      time_under_water_s: round(point.waterTime_s, DECIMALS.time_s),
+      mean_cooling_rate_under_water_K_s: point.waterTime_s > 0 ? round(waterDrop_K / point.waterTime_s, DECIMALS.K) : null,
+    };
+  }
+  return { result, summary, readings, warnings };
+}
+
 /** Runs a case file and writes DIR/summary.json, DIR/history.csv and DIR/profile.csv. */
 export function runCaseFile(file: string, outDir: string): RunOutcome {
   const c = loadCase(file);
@@ -127,23 +187,8 @@ export function runCaseFile(file: string, outDir: string): RunOutcome {
   const folder = new ResultFolder(outDir);
   try {
     const history: TextStream = folder.stream("history.csv");
-    let decimals: number[] = [];
-    const sink = {
-      row(time_s: number, values: Float64Array) {
-        let line = fixed(time_s, DECIMALS.time_s);
-        for (let q = 0; q < values.length; q++) line += "," + fixed(values[q], decimals[q]);
-        history.write(line + "\n");
-      },
-    };
-    const columnsProbe = resolved.steel ? resolved.steel.historyColumns(resolved.scenario) : null;
-    const cols = columnsProbe ?? [...resolved.scenario.output.depthLabels.map((d) => `T_${d}mm_C`), "T_mean_C"];
-    decimals = cols.map(decimalsForColumn);
-    history.write(csvHeader(["time_s", ...cols]));
-    const result = simulate(resolved.scenario, sink);
+    const { result, summary, warnings } = simulateResolved(c, resolved, (t) => history.write(t));
     history.close();
-    const warnings = resolved.steel ? resolved.steel.warnings.slice() : [];
-    const summary = buildSummary(c, resolved, result, warnings);
-    if (resolved.steel) resolved.steel.extendSummary(summary, result);
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
     folder.writeFile("profile.csv", profileCsv(result));
     folder.commit();

@@ -80,7 +80,12 @@ function sample(solver: ThroughThicknessSolver, depths: readonly number[], trans
   }
 }
 
-export function simulate(scenario: Scenario, sink?: HistorySink, onStep?: (solver: ThroughThicknessSolver) => void): SimulationResult {
+export function simulate(
+  scenario: Scenario,
+  sink?: HistorySink,
+  onStep?: (solver: ThroughThicknessSolver) => void,
+  onStageEnd?: (stageIndex: number, solver: ThroughThicknessSolver) => void,
+): SimulationResult {
   const nodes = scenario.numerics.cells + 1;
   const evolution = scenario.material.createEvolution?.(nodes);
   const transforming = evolution !== undefined;
@@ -125,7 +130,8 @@ export function simulate(scenario: Scenario, sink?: HistorySink, onStep?: (solve
   const slack = 1e-9 * Math.max(1, total);
   let t = 0;
   let stageEnd = 0;
-  for (const stage of scenario.stages) {
+  for (let si = 0; si < scenario.stages.length; si++) {
+    const stage = scenario.stages[si];
     stageEnd += stage.duration_s;
     while (t < stageEnd - slack) {
       const dt = Math.min(scenario.numerics.dt_s, stageEnd - t);
@@ -147,6 +153,7 @@ export function simulate(scenario: Scenario, sink?: HistorySink, onStep?: (solve
       t = tNew;
       onStep?.(solver);
     }
+    onStageEnd?.(si, solver);
   }
   // The end time always gets a row, even when it is not a multiple of the interval.
   if (sink && nextOutput - interval < total - slack) sink.row(total, cur);
