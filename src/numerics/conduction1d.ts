@@ -34,7 +34,7 @@
  * The solver allocates only in its constructor; `step` is allocation-free.
  */
 import { solveTridiagonal } from "./tridiagonal.js";
-import type { FaceLaw } from "./face-law.js";
+import { ConvectionRadiation, type FaceLaw } from "./face-law.js";
 import type { PropertyTables } from "./property-table.js";
 
 export type Scheme = "explicit" | "implicit" | "crank-nicolson";
@@ -232,10 +232,12 @@ export class ThroughThicknessSolver {
       const h = dt_s / m;
       for (let s = 0; s < m; s++) this.singleStep(h, top, bottom);
       this.stats.substeps += m;
+      this.stats.steps++;
       return m;
     }
     this.singleStep(dt_s, top, bottom);
     this.stats.substeps += 1;
+    this.stats.steps++;
     return 1;
   }
 
@@ -271,7 +273,9 @@ export class ThroughThicknessSolver {
     const ratio = this.lastDt > 0 ? dt / this.lastDt : 0;
     for (let i = 0; i < n; i++) Tstar[i] = T[i] + (T[i] - this.Tprev[i]) * ratio;
 
-    const linear = this.tables.constant && !evolution;
+    // One solve is exact only when nothing depends on temperature: constant tables, no phase
+    // evolution and faces whose flux is linear in T (no radiation, no boiling curve).
+    const linear = this.tables.constant && !evolution && isLinearFace(top) && isLinearFace(bottom);
     let iterations = 0;
     let change = Infinity;
     let qTopNew = 0;
@@ -381,7 +385,6 @@ export class ThroughThicknessSolver {
     }
     this.time_s += dt;
     this.lastDt = dt;
-    this.stats.steps++;
   }
 
   /** Stores E at the committed state and the conduction into each node (faces excluded). */
@@ -487,6 +490,11 @@ export class ThroughThicknessSolver {
       k[i] = data[o + 2] + f * (data[o + 5] - data[o + 2]);
     }
   }
+}
+
+/** A face whose heat flux is linear in the surface temperature. */
+function isLinearFace(law: FaceLaw): boolean {
+  return law.kind === "fixed" || (law instanceof ConvectionRadiation && law.emissivity === 0);
 }
 
 /** dq/dT of a face at T (its contribution to the explicit limit) [W/(m²·K)]. */
