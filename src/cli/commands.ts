@@ -1,9 +1,9 @@
 /**
  * The recalesce subcommands. Each prints a short readable report; files are written by the io layer.
  */
-import type { Command } from "commander";
+import { InvalidArgumentError, type Command } from "commander";
 import { z } from "zod";
-import { runCaseFile } from "../io/run-case.js";
+import { runCase } from "../io/run-case.js";
 import { caseSchema } from "../io/case-schema.js";
 import { SAFETY_NOTICE } from "../io/safety.js";
 
@@ -14,8 +14,11 @@ export function registerCommands(program: Command): void {
     .argument("<case>", "case file (JSON)")
     .requiredOption("-o, --out <dir>", "result folder (replaced atomically on success)")
     .option("-q, --quiet", "print nothing on success")
-    .action((file: string, opts: { out: string; quiet?: boolean }) => {
-      const { summary, warnings } = runCaseFile(file, opts.out);
+    .option("-j, --workers <n>", "worker threads for coil segments (default: all cores)", parseWorkers)
+    .action(async (file: string, opts: { out: string; quiet?: boolean; workers?: number }) => {
+      const progress = progressPrinter("segments");
+      const { summary, warnings } = await runCase(file, opts.out, { workers: opts.workers, onProgress: progress.update });
+      progress.done();
       for (const w of warnings) process.stderr.write(`warning: ${w}\n`);
       if (!opts.quiet) process.stdout.write(describeRun(summary, opts.out));
     });
@@ -29,6 +32,33 @@ export function registerCommands(program: Command): void {
     });
 }
 
+function parseWorkers(v: string): number {
+  const n = Number(v);
+  if (!Number.isInteger(n) || n < 1 || n > 64) throw new InvalidArgumentError("expected a whole number of workers, 1–64");
+  return n;
+}
+
+/**
+ * A one-line progress counter on stderr, shown only on a terminal and only once the work has run
+ * for more than a second (short runs stay quiet).
+ */
+export function progressPrinter(what: string): { update: (done: number, total: number) => void; done: () => void } {
+  const start = Date.now();
+  let shown = false;
+  return {
+    update(done, total) {
+      if (!process.stderr.isTTY || Date.now() - start < 1000) return;
+      shown = true;
+      const width = 30;
+      const filled = Math.round((width * done) / total);
+      process.stderr.write(`\r  ${"#".repeat(filled)}${".".repeat(width - filled)} ${done}/${total} ${what}`);
+    },
+    done() {
+      if (shown) process.stderr.write("\n");
+    },
+  };
+}
+
 function describeRun(summary: Record<string, unknown>, out: string): string {
   const s = summary as {
     title: string;
@@ -36,7 +66,9 @@ function describeRun(summary: Record<string, unknown>, out: string): string {
     final: { T_C: { top: number; centre: number; bottom: number; mean: number }; phases?: Record<string, number> };
     energy: { relative_error: number };
     numerics: { scheme: string; cells: number; steps: number; sub_steps: number };
-    coiling?: { T_C: { mean: number } };
+    coiling?: { T_C: { top: number; mean: number } };
+    pyrometers?: Array<{ position_m: number; T_C: number }>;
+    coil?: { segments: number; head: { coiling_mean_C: number }; body: { coiling_mean_C: number }; tail: { coiling_mean_C: number }; coiling_mean_C: { spread_K: number } };
   };
   const t = s.final.T_C;
   const lines = [
@@ -45,6 +77,13 @@ function describeRun(summary: Record<string, unknown>, out: string): string {
   ];
   if (s.final.phases) {
     lines.push("  phases (mass average): " + Object.entries(s.final.phases).map(([k, v]) => `${k} ${(v * 100).toFixed(1)} %`).join(", "));
+  }
+  if (s.coiling) lines.push(`  coiling temperature: mean ${s.coiling.T_C.mean.toFixed(1)} °C, top surface ${s.coiling.T_C.top.toFixed(1)} °C`);
+  if (s.pyrometers?.length) lines.push("  pyrometers (top surface): " + s.pyrometers.map((p) => `${p.position_m} m ${p.T_C.toFixed(1)} °C`).join(", "));
+  if (s.coil) {
+    lines.push(
+      `  coil (${s.coil.segments} segments): head ${s.coil.head.coiling_mean_C.toFixed(1)} °C, body ${s.coil.body.coiling_mean_C.toFixed(1)} °C, tail ${s.coil.tail.coiling_mean_C.toFixed(1)} °C, spread ${s.coil.coiling_mean_C.spread_K.toFixed(1)} K (coil.csv)`,
+    );
   }
   lines.push(`  ${s.numerics.scheme}, ${s.numerics.cells} cells, ${s.numerics.steps} steps (${s.numerics.sub_steps} sub-steps); energy ledger closes to ${s.energy.relative_error.toExponential(1)}`);
   lines.push(`  results in ${out}/ (summary.json, history.csv, profile.csv)`);

@@ -2,7 +2,8 @@
  * `recalesce run`: load, validate, simulate, write the result folder atomically.
  */
 import { loadCase } from "./load-case.js";
-import { resolveCase, type ResolvedCase } from "./resolve-case.js";
+import { coilSegments, resolveCase, type ResolvedCase } from "./resolve-case.js";
+import { runCoil, type SegmentResult } from "./coil.js";
 import { simulate, type SimulationResult } from "../model/simulate.js";
 import { ResultFolder, type TextStream } from "./result-folder.js";
 import { DECIMALS, decimalsForColumn, fixed, round, significant } from "./format.js";
@@ -191,6 +192,94 @@ export function runCaseFile(file: string, outDir: string): RunOutcome {
     history.close();
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
     folder.writeFile("profile.csv", profileCsv(result));
+    folder.commit();
+    return { summary, result, warnings };
+  } catch (e) {
+    folder.abort();
+    throw e;
+  }
+}
+
+/** coil.csv: one row per segment. */
+export function coilCsv(rows: readonly SegmentResult[], pyrometers_m: readonly number[]): string {
+  const phases = rows[0]?.phases ? Object.keys(rows[0].phases) : [];
+  const product = rows[0]?.product ? Object.keys(rows[0].product) : [];
+  const cols = [
+    "segment",
+    "position_m",
+    "entry_C",
+    ...pyrometers_m.map((x) => `pyrometer_${x}m_C`),
+    "coiling_top_C",
+    "coiling_centre_C",
+    "coiling_bottom_C",
+    "coiling_mean_C",
+    "time_on_table_s",
+    "time_under_water_s",
+    "cooling_rate_under_water_K_s",
+    ...phases,
+    ...product,
+  ];
+  let out = csvHeader(cols);
+  for (const r of rows) {
+    const parts = [
+      String(r.segment + 1),
+      fixed(r.position_m, DECIMALS.position_m),
+      fixed(r.entry_C, DECIMALS.T_C),
+      ...r.pyrometers_C.map((v) => fixed(v, DECIMALS.T_C)),
+      fixed(r.coiling_C.top, DECIMALS.T_C),
+      fixed(r.coiling_C.centre, DECIMALS.T_C),
+      fixed(r.coiling_C.bottom, DECIMALS.T_C),
+      fixed(r.coiling_C.mean, DECIMALS.T_C),
+      fixed(r.time_on_table_s, DECIMALS.time_s),
+      fixed(r.time_under_water_s, DECIMALS.time_s),
+      r.cooling_rate_under_water_K_s === null ? "" : fixed(r.cooling_rate_under_water_K_s, DECIMALS.K),
+      ...phases.map((p) => fixed(r.phases![p], DECIMALS.fraction)),
+      ...product.map((p) => (r.product![p] === null ? "" : fixed(r.product![p] as number, decimalsForColumn(p)))),
+    ];
+    out += parts.join(",") + "\n";
+  }
+  return out;
+}
+
+/** Head (first segment), body (middle segment), tail (last segment) and the spread of the coil. */
+export function coilSummary(rows: readonly SegmentResult[]): Record<string, unknown> {
+  const means = rows.map((r) => r.coiling_C.mean);
+  const pick = (r: SegmentResult) => ({ segment: r.segment + 1, position_m: r.position_m, coiling_mean_C: r.coiling_C.mean, coiling_top_C: r.coiling_C.top });
+  return {
+    segments: rows.length,
+    head: pick(rows[0]),
+    body: pick(rows[Math.floor((rows.length - 1) / 2)]),
+    tail: pick(rows[rows.length - 1]),
+    coiling_mean_C: { min: round(Math.min(...means), DECIMALS.T_C), max: round(Math.max(...means), DECIMALS.T_C), spread_K: round(Math.max(...means) - Math.min(...means), DECIMALS.K) },
+    worst_energy_relative_error: significant(Math.max(...rows.map((r) => r.energy_relative_error)), 3),
+  };
+}
+
+export interface RunOptions {
+  readonly workers?: number;
+  readonly onProgress?: (done: number, total: number) => void;
+}
+
+/**
+ * Runs any case. A coil case also writes DIR/coil.csv; its history, profile and main summary are
+ * those of the body (middle) segment, and summary.coil gives head, body, tail and spread.
+ */
+export async function runCase(file: string, outDir: string, options: RunOptions = {}): Promise<RunOutcome> {
+  const c = loadCase(file);
+  if (!("line" in c.cooling) || !c.cooling.coil) return runCaseFile(file, outDir);
+  const segments = coilSegments(file, c.cooling.coil);
+  const body = segments[Math.floor((segments.length - 1) / 2)];
+  const resolved = resolveCase(file, c, { coilPosition_m: body.position_m, entry_C: body.entry_C });
+  const rows = await runCoil(file, c, { workers: options.workers, onProgress: options.onProgress });
+  const folder = new ResultFolder(outDir);
+  try {
+    const history: TextStream = folder.stream("history.csv");
+    const { result, summary, warnings } = simulateResolved(c, resolved, (t) => history.write(t));
+    history.close();
+    summary.coil = coilSummary(rows);
+    folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
+    folder.writeFile("profile.csv", profileCsv(result));
+    folder.writeFile("coil.csv", coilCsv(rows, resolved.line!.spec.pyrometers_m));
     folder.commit();
     return { summary, result, warnings };
   } catch (e) {
