@@ -130,6 +130,8 @@ export const materialSchema = z
     composition_wt_pct: compositionSchema.optional(),
     austenite_grain_um: positive("µm").refine((v) => v < 5000, "must be < 5000 µm").optional(),
     retained_strain: num("-").refine((v) => v >= 0 && v <= 1, "must lie in [0, 1]").optional(),
+    grain_model: z.enum(["empirical", "mechanistic"], { error: 'expected "empirical" or "mechanistic"' }).optional(),
+    interface_energy_J_m2: num("J/m²").refine((v) => v > 0 && v <= 5, "must lie in (0, 5] J/m²").optional(),
     transformation: z.enum(["on", "off"], { error: 'expected "on" or "off"' }).optional(),
     latent_heat: z.enum(["on", "off"], { error: 'expected "on" or "off"' }).optional(),
     critical_C: z.strictObject({ Ae3: celsius.optional(), Ae1: celsius.optional(), Bs: celsius.optional(), Ms: celsius.optional() }).optional(),
@@ -152,7 +154,7 @@ export const materialSchema = z
       for (const key of ["conductivity_W_mK", "specific_heat_J_kgK", "density_kg_m3"] as const) {
         if (m[key] === undefined) ctx.addIssue({ code: "custom", path: [key], message: "required when no composition_wt_pct is given" });
       }
-      for (const key of ["austenite_grain_um", "transformation", "latent_heat", "critical_C", "kinetics", "formulas", "stored_energy_fraction", "retained_strain"] as const) {
+      for (const key of ["austenite_grain_um", "grain_model", "interface_energy_J_m2", "transformation", "latent_heat", "critical_C", "kinetics", "formulas", "stored_energy_fraction", "retained_strain"] as const) {
         if (m[key] !== undefined) ctx.addIssue({ code: "custom", path: [key], message: "only meaningful with composition_wt_pct (a steel)" });
       }
     }
@@ -172,6 +174,8 @@ export const numericsSchema = z.strictObject({
 export const outputSchema = z.strictObject({
   depths_mm: z.array(nonNegative("mm"), { error: "expected a list of depths in mm" }).min(1, "give at least one depth (mm)"),
   interval_s: positive("s"),
+  /** Also run the case with latent heat off and report the grain-size penalty per depth (default true). */
+  recalescence_penalty: z.boolean({ error: "expected true or false" }).optional(),
 });
 
 export const stagesCoolingSchema = z.strictObject({

@@ -31,7 +31,7 @@ export interface SegmentResult {
 /** Simulates one segment of a coil case. */
 export function simulateSegment(file: string, c: Case, seg: CoilSegment): SegmentResult {
   const resolved = resolveCase(file, c, { coilPosition_m: seg.position_m, entry_C: seg.entry_C });
-  const { summary, readings } = simulateResolved(c, resolved);
+  const { summary, readings } = simulateResolved(c, resolved, undefined, true);
   const s = summary as {
     final: { T_C: { top: number; centre: number; bottom: number; mean: number }; phases?: Record<string, number>; product?: Record<string, number | null> };
     line: { time_on_table_s: number; time_under_water_s: number; mean_cooling_rate_under_water_K_s: number | null };

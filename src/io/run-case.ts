@@ -10,6 +10,8 @@ import { DECIMALS, decimalsForColumn, fixed, round, significant } from "./format
 import { SAFETY_NOTICE } from "./safety.js";
 import { KELVIN } from "../model/scenario.js";
 import { PHASES } from "../physics/phases.js";
+import { describeWarning } from "../physics/composition.js";
+import { ProductTracker, type NodeProduct } from "../model/product.js";
 import type { Case } from "./case-schema.js";
 
 export interface RunOutcome {
@@ -106,16 +108,22 @@ function csvHeader(columns: string[]): string {
   return columns.join(",") + "\n";
 }
 
-/** Writes the final through-thickness profile, one row per node. */
-function profileCsv(result: SimulationResult): string {
+/** Writes the final through-thickness profile, one row per node (empty cell = not defined). */
+function profileCsv(result: SimulationResult, products: NodeProduct[] | null): string {
   const s = result.solver;
   const transforming = s.fractions.length > 1;
   const cols = ["depth_mm", "T_C"];
   if (transforming) cols.push("ferrite", "pearlite", "bainite", "martensite", "austenite");
+  if (products) cols.push("grain_um", "grain_floor_nm", "yield_MPa", "tensile_MPa", "hardness_HV");
   let out = csvHeader(cols);
+  const opt = (v: number | null, d: number) => (v === null ? "" : fixed(v, d));
   for (let i = 0; i < s.nodes; i++) {
     const parts = [fixed(i * s.dx_m * 1000, 4), fixed(s.T[i] - KELVIN, DECIMALS.T_C)];
     if (transforming) for (const p of ["ferrite", "pearlite", "bainite", "martensite", "austenite"] as const) parts.push(fixed(s.fractions[PHASES.indexOf(p)][i], DECIMALS.fraction));
+    if (products) {
+      const q = products[i];
+      parts.push(opt(q.grain_um, DECIMALS.grain_um), opt(q.grainFloor_nm, 2), opt(q.yield_MPa, DECIMALS.strength), opt(q.tensile_MPa, DECIMALS.strength), opt(q.hardness_HV, DECIMALS.strength));
+    }
     out += parts.join(",") + "\n";
   }
   return out;
@@ -134,7 +142,8 @@ export function simulateResolved(
   c: Case,
   resolved: ResolvedCase,
   write?: (text: string) => void,
-): { result: SimulationResult; summary: Record<string, unknown>; readings: LineReadings; warnings: string[] } {
+  penaltyDisabled = false,
+): { result: SimulationResult; summary: Record<string, unknown>; readings: LineReadings; warnings: string[]; products: NodeProduct[] | null } {
   const cols = resolved.steel ? resolved.steel.historyColumns(resolved.scenario) : [...resolved.scenario.output.depthLabels.map((d) => `T_${d}mm_C`), "T_mean_C"];
   const decimals = cols.map(decimalsForColumn);
   const point = resolved.line?.point;
@@ -163,10 +172,18 @@ export function simulateResolved(
         stageStartMean_K = mean;
       }
     : undefined;
-  const result = simulate(resolved.scenario, sink, undefined, onStageEnd);
+  const tracker = productTracker(resolved);
+  const result = simulate(resolved.scenario, sink, { onStart: tracker?.start.bind(tracker), onStep: tracker?.step.bind(tracker), onStageEnd });
   const warnings = resolved.steel ? resolved.steel.warnings.slice() : [];
+  const products = tracker ? tracker.finish(result.solver) : null;
+  if (tracker) for (const w of tracker.warnings) warnings.push(describeWarning(w));
   const summary = buildSummary(c, resolved, result, warnings);
   if (resolved.steel) resolved.steel.extendSummary(summary, result);
+  if (products && resolved.steel) {
+    addProductSummary(summary, result, products, resolved.steel.grainModel);
+    const wantPenalty = c.output.recalescence_penalty ?? true;
+    if (wantPenalty && !penaltyDisabled && resolved.steel.latentHeat) addPenalty(summary, resolved, result, products);
+  }
   if (point && resolved.line) {
     const final = (summary.final as { T_C: Record<string, number> }).T_C;
     summary.coiling = { T_C: { ...final } };
@@ -178,7 +195,93 @@ export function simulateResolved(
       mean_cooling_rate_under_water_K_s: point.waterTime_s > 0 ? round(waterDrop_K / point.waterTime_s, DECIMALS.K) : null,
     };
   }
-  return { result, summary, readings, warnings };
+  return { result, summary, readings, warnings, products };
+}
+
+/** A product tracker for a transforming steel, else null. */
+function productTracker(resolved: ResolvedCase): ProductTracker | null {
+  const steel = resolved.steel;
+  if (!steel || !steel.transformation) return null;
+  return new ProductTracker(resolved.scenario.numerics.cells + 1, {
+    composition: steel.composition,
+    austeniteGrain_um: steel.austeniteGrain_um,
+    retainedStrain: steel.retainedStrain,
+    ae3_K: steel.critical.Ae3_C + KELVIN,
+    grainModel: steel.grainModel,
+    interfaceEnergy_J_m2: steel.interfaceEnergy_J_m2,
+  });
+}
+
+type ProductField = "grain_um" | "yield_MPa" | "tensile_MPa" | "hardness_HV";
+const PRODUCT_FIELDS: readonly ProductField[] = ["grain_um", "yield_MPa", "tensile_MPa", "hardness_HV"];
+
+/** Node index nearest to a depth [m]. */
+function nodeAt(result: SimulationResult, depth_m: number): number {
+  return Math.min(result.solver.nodes - 1, Math.max(0, Math.round(depth_m / result.solver.dx_m)));
+}
+
+/** Top, centre, bottom and volume-weighted mean of a node property (mean over nodes that have one). */
+function throughThickness(result: SimulationResult, values: ReadonlyArray<number | null>, decimals: number): Record<string, number | null> {
+  const s = result.solver;
+  let sum = 0;
+  let weight = 0;
+  for (let i = 0; i < s.nodes; i++) {
+    const v = values[i];
+    if (v === null) continue;
+    sum += s.width[i] * v;
+    weight += s.width[i];
+  }
+  const at = (i: number) => (values[i] === null ? null : round(values[i] as number, decimals));
+  return { top: at(0), centre: at(nodeAt(result, s.thickness_m / 2)), bottom: at(s.nodes - 1), mean: weight > 0 ? round(sum / weight, decimals) : null };
+}
+
+function addProductSummary(summary: Record<string, unknown>, result: SimulationResult, products: NodeProduct[], grainModel: string): void {
+  const final = summary.final as Record<string, unknown>;
+  for (const f of PRODUCT_FIELDS) final[f] = throughThickness(result, products.map((p) => p[f]), f === "grain_um" ? DECIMALS.grain_um : DECIMALS.strength);
+  final.grain_floor_nm = throughThickness(result, products.map((p) => p.grainFloor_nm), 2);
+  const mean = (f: ProductField) => (final[f] as Record<string, number | null>).mean;
+  final.product = { grain_mean_um: mean("grain_um"), yield_mean_MPa: mean("yield_MPa"), tensile_mean_MPa: mean("tensile_MPa"), hardness_mean_HV: mean("hardness_HV") };
+  const reasons = new Set<string>();
+  for (const p of products) for (const r of p.reasons) reasons.add(r);
+  summary.product = {
+    grain_model: grainModel === "empirical" ? "empirical (Hodgson–Gibbs type; coefficients from memory)" : "mechanistic (grain-boundary nucleation, calibrated to the empirical relation)",
+    strength_model: "Pickering (1978) for ferrite–pearlite; Maynier (1978) hardness with TS ≈ 3.3 HV for bainite and martensite",
+    notes: [...reasons].sort(),
+  };
+  const depths = summary.depths as Array<Record<string, unknown>>;
+  result.depthRecords.forEach((r, j) => {
+    const p = products[nodeAt(result, r.depth_m)];
+    const d = depths[j];
+    d.grain_um = p.grain_um === null ? null : round(p.grain_um, DECIMALS.grain_um);
+    d.grain_floor_nm = p.grainFloor_nm === null ? null : round(p.grainFloor_nm, 2);
+    d.ferrite_start_C = p.ferriteStart_C === null ? null : round(p.ferriteStart_C, DECIMALS.T_C);
+    d.ferrite_half_C = p.ferriteHalf_C === null ? null : round(p.ferriteHalf_C, DECIMALS.T_C);
+    d.cooling_rate_through_transformation_K_s = p.coolingRate_K_s === null ? null : round(p.coolingRate_K_s, DECIMALS.K);
+  });
+}
+
+/**
+ * The recalescence penalty: the same case with latent heat off, side by side per depth. The
+ * difference is what the released heat cost in grain refinement and transformation temperature.
+ */
+function addPenalty(summary: Record<string, unknown>, resolved: ResolvedCase, result: SimulationResult, products: NodeProduct[]): void {
+  const scenario = { ...resolved.scenario, material: { ...resolved.scenario.material, latentHeat: false } };
+  const tracker = productTracker(resolved)!;
+  const off = simulate(scenario, undefined, { onStart: tracker.start.bind(tracker), onStep: tracker.step.bind(tracker) });
+  const offProducts = tracker.finish(off.solver);
+  const r = (v: number | null, d: number) => (v === null ? null : round(v, d));
+  summary.recalescence_penalty = result.depthRecords.map((rec) => {
+    const i = nodeAt(result, rec.depth_m);
+    const on = products[i];
+    const no = offProducts[i];
+    return {
+      depth_mm: Number(rec.label),
+      latent_heat_on: { ferrite_start_C: r(on.ferriteStart_C, DECIMALS.T_C), ferrite_half_C: r(on.ferriteHalf_C, DECIMALS.T_C), grain_um: r(on.grain_um, DECIMALS.grain_um) },
+      latent_heat_off: { ferrite_start_C: r(no.ferriteStart_C, DECIMALS.T_C), ferrite_half_C: r(no.ferriteHalf_C, DECIMALS.T_C), grain_um: r(no.grain_um, DECIMALS.grain_um) },
+      grain_coarsening_um: on.grain_um !== null && no.grain_um !== null ? round(on.grain_um - no.grain_um, DECIMALS.grain_um) : null,
+      ferrite_half_raised_K: on.ferriteHalf_C !== null && no.ferriteHalf_C !== null ? round(on.ferriteHalf_C - no.ferriteHalf_C, DECIMALS.K) : null,
+    };
+  });
 }
 
 /** Runs a case file and writes DIR/summary.json, DIR/history.csv and DIR/profile.csv. */
@@ -188,10 +291,10 @@ export function runCaseFile(file: string, outDir: string): RunOutcome {
   const folder = new ResultFolder(outDir);
   try {
     const history: TextStream = folder.stream("history.csv");
-    const { result, summary, warnings } = simulateResolved(c, resolved, (t) => history.write(t));
+    const { result, summary, warnings, products } = simulateResolved(c, resolved, (t) => history.write(t));
     history.close();
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
-    folder.writeFile("profile.csv", profileCsv(result));
+    folder.writeFile("profile.csv", profileCsv(result, products));
     folder.commit();
     return { summary, result, warnings };
   } catch (e) {
@@ -274,11 +377,11 @@ export async function runCase(file: string, outDir: string, options: RunOptions 
   const folder = new ResultFolder(outDir);
   try {
     const history: TextStream = folder.stream("history.csv");
-    const { result, summary, warnings } = simulateResolved(c, resolved, (t) => history.write(t));
+    const { result, summary, warnings, products } = simulateResolved(c, resolved, (t) => history.write(t));
     history.close();
     summary.coil = coilSummary(rows);
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
-    folder.writeFile("profile.csv", profileCsv(result));
+    folder.writeFile("profile.csv", profileCsv(result, products));
     folder.writeFile("coil.csv", coilCsv(rows, resolved.line!.spec.pyrometers_m));
     folder.commit();
     return { summary, result, warnings };

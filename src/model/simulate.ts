@@ -80,12 +80,25 @@ function sample(solver: ThroughThicknessSolver, depths: readonly number[], trans
   }
 }
 
+/** Callbacks into a running simulation (none may keep references to the solver's arrays). */
+export interface SimulationHooks {
+  /** Before the first step, with the initial state. */
+  onStart?(solver: ThroughThicknessSolver): void;
+  /** After every accepted step. */
+  onStep?(solver: ThroughThicknessSolver): void;
+  /** After the last step of each stage. */
+  onStageEnd?(stageIndex: number, solver: ThroughThicknessSolver): void;
+}
+
 export function simulate(
   scenario: Scenario,
   sink?: HistorySink,
-  onStep?: (solver: ThroughThicknessSolver) => void,
-  onStageEnd?: (stageIndex: number, solver: ThroughThicknessSolver) => void,
+  hooks?: SimulationHooks | ((solver: ThroughThicknessSolver) => void),
+  onStageEndArg?: (stageIndex: number, solver: ThroughThicknessSolver) => void,
 ): SimulationResult {
+  const h: SimulationHooks = typeof hooks === "function" ? { onStep: hooks, onStageEnd: onStageEndArg } : { ...(hooks ?? {}), ...(onStageEndArg ? { onStageEnd: onStageEndArg } : {}) };
+  const onStep = h.onStep?.bind(h);
+  const onStageEnd = h.onStageEnd?.bind(h);
   const nodes = scenario.numerics.cells + 1;
   const evolution = scenario.material.createEvolution?.(nodes);
   const transforming = evolution !== undefined;
@@ -121,6 +134,7 @@ export function simulate(
   const interval = scenario.output.interval_s;
   let nextOutput = 0;
   sample(solver, depths, transforming, cur);
+  h.onStart?.(solver);
   if (sink) {
     sink.row(0, cur);
     nextOutput = interval;

@@ -17,6 +17,7 @@ import { AUSTENITE, PHASES } from "../physics/phases.js";
 import { buildPropertyTables, evaluateProperty, type TabulatedOrConstant, type PhaseProperties } from "../numerics/property-table.js";
 import { KELVIN, type MaterialModel, type Scenario } from "./scenario.js";
 import { historyColumns, type SimulationResult } from "./simulate.js";
+import { DEFAULT_BOUNDARY_ENERGY_J_m2 } from "../physics/grain-floor.js";
 
 /** Default steel density [kg/m³] (EN 1993-1-2 design value). */
 export const STEEL_DENSITY_kg_m3 = 7850;
@@ -35,6 +36,8 @@ export interface SteelMaterialInput {
   composition_wt_pct?: Partial<Record<Element, number | undefined>>;
   austenite_grain_um?: number;
   retained_strain?: number;
+  grain_model?: "empirical" | "mechanistic";
+  interface_energy_J_m2?: number;
   transformation?: "on" | "off";
   latent_heat?: "on" | "off";
   critical_C?: { Ae3?: number; Ae1?: number; Bs?: number; Ms?: number };
@@ -60,6 +63,8 @@ export interface SteelSetup {
   readonly austeniteGrain_um: number;
   readonly astmGrainNumber: number;
   readonly retainedStrain: number;
+  readonly grainModel: "empirical" | "mechanistic";
+  readonly interfaceEnergy_J_m2: number;
   readonly critical: CriticalUsed;
   readonly transformation: boolean;
   readonly latentHeat: boolean;
@@ -152,6 +157,8 @@ export function resolveSteel(m: SteelMaterialInput, initial_C: number): SteelSet
     austeniteGrain_um: grain,
     astmGrainNumber: G,
     retainedStrain: m.retained_strain ?? 0,
+    grainModel: m.grain_model ?? "empirical",
+    interfaceEnergy_J_m2: m.interface_energy_J_m2 ?? DEFAULT_BOUNDARY_ENERGY_J_m2,
     critical,
     transformation,
     latentHeat,

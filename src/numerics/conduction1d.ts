@@ -103,7 +103,8 @@ export class ThroughThicknessSolver {
 
   private readonly theta: number;
   private readonly tables: PropertyTables;
-  private readonly evolution: PhaseEvolution | undefined;
+  /** The phase-fraction model, when the material transforms. */
+  readonly evolution: PhaseEvolution | undefined;
   private readonly latentHeat: boolean;
   private readonly tolerance_K: number;
   private readonly maxIterations: number;
