@@ -6,6 +6,7 @@ import { z } from "zod";
 import { runCase } from "../io/run-case.js";
 import { caseSchema } from "../io/case-schema.js";
 import { SAFETY_NOTICE } from "../io/safety.js";
+import { registerLimitsCommand } from "./limits-command.js";
 
 export function registerCommands(program: Command): void {
   program
@@ -22,6 +23,8 @@ export function registerCommands(program: Command): void {
       for (const w of warnings) process.stderr.write(`warning: ${w}\n`);
       if (!opts.quiet) process.stdout.write(describeRun(summary, opts.out));
     });
+
+  registerLimitsCommand(program);
 
   program
     .command("schema")
