@@ -16,9 +16,10 @@ export function registerCommands(program: Command): void {
     .requiredOption("-o, --out <dir>", "result folder (replaced atomically on success)")
     .option("-q, --quiet", "print nothing on success")
     .option("-j, --workers <n>", "worker threads for coil segments (default: all cores)", parseWorkers)
-    .action(async (file: string, opts: { out: string; quiet?: boolean; workers?: number }) => {
+    .option("--force", "run even when the up-front work estimate exceeds the stated limits")
+    .action(async (file: string, opts: { out: string; quiet?: boolean; workers?: number; force?: boolean }) => {
       const progress = progressPrinter("segments");
-      const { summary, warnings } = await runCase(file, opts.out, { workers: opts.workers, onProgress: progress.update });
+      const { summary, warnings } = await runCase(file, opts.out, { workers: opts.workers, force: opts.force, onProgress: progress.update });
       progress.done();
       for (const w of warnings) process.stderr.write(`warning: ${w}\n`);
       if (!opts.quiet) process.stdout.write(describeRun(summary, opts.out));

@@ -13,6 +13,7 @@ import { PHASES } from "../physics/phases.js";
 import { describeWarning } from "../physics/composition.js";
 import { ProductTracker, type NodeProduct } from "../model/product.js";
 import type { Case } from "./case-schema.js";
+import { InputError } from "./errors.js";
 
 export interface RunOutcome {
   readonly summary: Record<string, unknown>;
@@ -285,9 +286,10 @@ function addPenalty(summary: Record<string, unknown>, resolved: ResolvedCase, re
 }
 
 /** Runs a case file and writes DIR/summary.json, DIR/history.csv and DIR/profile.csv. */
-export function runCaseFile(file: string, outDir: string): RunOutcome {
+export function runCaseFile(file: string, outDir: string, force = false): RunOutcome {
   const c = loadCase(file);
   const resolved = resolveCase(file, c);
+  guardWork(file, c, resolved, 1, force);
   const folder = new ResultFolder(outDir);
   try {
     const history: TextStream = folder.stream("history.csv");
@@ -358,7 +360,48 @@ export function coilSummary(rows: readonly SegmentResult[]): Record<string, unkn
   };
 }
 
+/** Work a run may ask for without --force (stated in the README). */
+export const WORK_LIMITS = { cells: 20000, cellSteps: 1e9 } as const;
+
+/**
+ * Up-front estimate of a run's work: cells × steps (× explicit sub-steps, from the stability limit
+ * at the initial temperature) × coil segments (× 2 with the recalescence-penalty run).
+ */
+export function estimateWork(c: Case, resolved: ResolvedCase, segments: number): { cells: number; steps: number; cellSteps: number } {
+  const sc = resolved.scenario;
+  const total = sc.stages.reduce((a, st) => a + st.duration_s, 0);
+  let steps = Math.ceil(total / sc.numerics.dt_s) + sc.stages.length;
+  if (sc.numerics.scheme === "explicit") {
+    const t = sc.material.tables;
+    const j = Math.min(t.n - 2, Math.max(0, Math.floor((sc.initial_K - t.T0_K) / t.dT_K)));
+    let alphaMax = 0;
+    for (const d of t.data) alphaMax = Math.max(alphaMax, d[3 * j + 2] / d[3 * j + 1]);
+    const dx = sc.thickness_m / sc.numerics.cells;
+    const limit = (dx * dx) / (2 * alphaMax);
+    steps = Math.max(steps, Math.ceil(total / (0.9 * limit)));
+  }
+  const penalty = resolved.steel?.transformation && (c.output.recalescence_penalty ?? true) ? 2 : 1;
+  return { cells: sc.numerics.cells, steps, cellSteps: sc.numerics.cells * steps * segments * penalty };
+}
+
+/** Refuses absurd work before anything is written, naming the estimate. */
+export function guardWork(file: string, c: Case, resolved: ResolvedCase, segments: number, force: boolean): void {
+  if (force) return;
+  const w = estimateWork(c, resolved, segments);
+  if (w.cells > WORK_LIMITS.cells) {
+    throw new InputError(file, "numerics.cells", `${w.cells} cells exceeds the limit of ${WORK_LIMITS.cells}; use fewer cells or --force`);
+  }
+  if (w.cellSteps > WORK_LIMITS.cellSteps) {
+    throw new InputError(
+      file,
+      "numerics.time_step_s",
+      `the run needs about ${w.cellSteps.toExponential(2)} cell-steps (${w.steps} steps × ${w.cells} cells${segments > 1 ? ` × ${segments} segments` : ""}), above the limit of ${WORK_LIMITS.cellSteps.toExponential(0)}; use a longer step, fewer cells, or --force`,
+    );
+  }
+}
+
 export interface RunOptions {
+  readonly force?: boolean;
   readonly workers?: number;
   readonly onProgress?: (done: number, total: number) => void;
 }
@@ -369,10 +412,11 @@ export interface RunOptions {
  */
 export async function runCase(file: string, outDir: string, options: RunOptions = {}): Promise<RunOutcome> {
   const c = loadCase(file);
-  if (!("line" in c.cooling) || !c.cooling.coil) return runCaseFile(file, outDir);
+  if (!("line" in c.cooling) || !c.cooling.coil) return runCaseFile(file, outDir, options.force);
   const segments = coilSegments(file, c.cooling.coil);
   const body = segments[Math.floor((segments.length - 1) / 2)];
   const resolved = resolveCase(file, c, { coilPosition_m: body.position_m, entry_C: body.entry_C });
+  guardWork(file, c, resolved, segments.length + 1, options.force ?? false);
   const rows = await runCoil(file, c, { workers: options.workers, onProgress: options.onProgress });
   const folder = new ResultFolder(outDir);
   try {
