@@ -85,6 +85,7 @@ export function buildSummary(c: Case, resolved: ResolvedCase, result: Simulation
       sub_steps: s.stats.substeps,
       picard_iterations: s.stats.iterations,
       max_iterations_in_a_step: s.stats.maxIterationsInStep,
+      halved_steps: s.stats.halvings,
       unconverged_steps: s.stats.unconvergedSteps,
       picard_tolerance_K: resolved.scenario.numerics.tolerance_K,
     },

@@ -24,7 +24,10 @@
  * evaluated at an iterate T*, the enthalpy and face fluxes linearised,
  *   E(T) ≈ E(T*) + C(T*)(T − T*),  q(T) ≈ q(T*) + q'(T*)(T − T*),
  * the tridiagonal system solved by the Thomas algorithm, and repeated until
- * max_i |T_i − T*_i| < tolerance. The first iterate extrapolates the last step's change.
+ * max_i |T_i − T*_i| < tolerance. The first iterate extrapolates the last step's change. With phase
+ * evolution the Jacobian uses the secant slope of E(T, X(T)) over the last two iterates. A step
+ * that does not converge within the iteration cap is retried as two half steps (to 1/256), and
+ * only then counted as unconverged.
  *
  * Explicit stability (Incropera Table 5.2 method: every old-temperature coefficient ≥ 0): node i
  * needs Δt ≤ w_i C_i / (G_{i−½} + G_{i+½} + q'_i), i.e. Fo ≤ ½ inside and Fo(1 + Bi_Δ) ≤ ½ at a
@@ -76,6 +79,8 @@ export interface SolverStatistics {
   substeps: number;
   iterations: number;
   maxIterationsInStep: number;
+  /** Steps retried as two halves because the iteration did not converge. */
+  halvings: number;
   unconvergedSteps: number;
 }
 
@@ -99,7 +104,7 @@ export class ThroughThicknessSolver {
   heatOutBottom_J_m2 = 0;
   /** Enthalpy per unit area at the start [J/m²]. */
   readonly initialEnthalpy_J_m2: number;
-  readonly stats: SolverStatistics = { steps: 0, substeps: 0, iterations: 0, maxIterationsInStep: 0, unconvergedSteps: 0 };
+  readonly stats: SolverStatistics = { steps: 0, substeps: 0, iterations: 0, maxIterationsInStep: 0, halvings: 0, unconvergedSteps: 0 };
 
   private readonly theta: number;
   private readonly tables: PropertyTables;
@@ -242,7 +247,7 @@ export class ThroughThicknessSolver {
     return 1;
   }
 
-  private singleStep(dt: number, top: FaceLaw, bottom: FaceLaw): void {
+  private singleStep(dt: number, top: FaceLaw, bottom: FaceLaw, depth = 0): void {
     const n = this.nodes;
     const theta = this.theta;
     const T = this.T;
@@ -353,7 +358,17 @@ export class ThroughThicknessSolver {
     }
     this.stats.iterations += iterations;
     if (iterations > this.stats.maxIterationsInStep) this.stats.maxIterationsInStep = iterations;
-    if (!linear && !(change < this.tolerance_K)) this.stats.unconvergedSteps++;
+    if (!linear && !(change < this.tolerance_K)) {
+      // Not converged (a kink in the kinetics or a boiling curve can make the fixed point cycle):
+      // nothing has been committed yet, so retry the step as two halves, down to 1/256 of it.
+      if (depth < 8) {
+        this.stats.halvings++;
+        this.singleStep(dt / 2, top, bottom, depth + 1);
+        this.singleStep(dt / 2, top, bottom, depth + 1);
+        return;
+      }
+      this.stats.unconvergedSteps++;
+    }
 
     // Commit: fractions, then properties at the new temperatures.
     this.Tprev.set(T);
