@@ -7,7 +7,7 @@
  * file under "tolerances": temperatures 0.5 K absolute (`temperature_K`), phase fractions 0.005
  * absolute (`fraction`), grain size and strength 1 % relative (`grain_relative`,
  * `strength_relative`), times 0.05 s absolute (`time_s`), cooling rates 1 % relative
- * (`rate_relative`), energy-ledger error at most 1e-5 (`ledger_max`), positions 1e-6 (`position`),
+ * (`rate_relative`), energy-ledger error at most 1e-4 (`ledger_max`), positions 1e-6 (`position`),
  * anything else 0.1 % relative (`other_relative`); single quantities under
  * "tolerances": { "quantities": { "PATH": value } }.
  *
@@ -32,7 +32,8 @@ export interface CheckCommandOptions {
 const NEW_LISTED = 5;
 
 function plural(n: number, word: string): string {
-  return `${n} ${word}${n === 1 ? "" : "s"}`;
+  if (n === 1) return `${n} ${word}`;
+  return `${n} ${word.endsWith("y") ? `${word.slice(0, -1)}ies` : `${word}s`}`;
 }
 
 function caseLine(c: CaseOutcome, dir: string, nameWidth: number): string {

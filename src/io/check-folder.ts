@@ -18,7 +18,7 @@ import { baselineFileFor, blessBaseline, blessedResultsOf, sha256, stringifyBase
 import { compareWithBaseline, type Comparison } from "./compare-baseline.js";
 import { InputError } from "./errors.js";
 import { loadCase, parseJson, readTextFile } from "./load-case.js";
-import { runCaseFile } from "./run-case.js";
+import { runCase } from "./run-case.js";
 
 export type CaseStatus = "passed" | "regressed" | "not blessed" | "blessed";
 
@@ -93,8 +93,8 @@ export async function runCaseForCheck(caseFile: string): Promise<BlessedResults>
   process.once("exit", cleanup);
   try {
     const out = join(scratch, "result");
-    // `await` keeps this correct if runCaseFile becomes asynchronous (to yield to signals).
-    await runCaseFile(caseFile, out);
+    // runCase, not runCaseFile: a coil case runs all its segments and adds summary.coil.
+    await runCase(caseFile, out);
     return blessedResultsOf(readFileSync(join(out, "summary.json"), "utf8"), readFileSync(join(out, "history.csv"), "utf8"));
   } finally {
     cleanup();
