@@ -11,8 +11,9 @@
  *   X_F,eq = (0.77 − C₀)/0.75 below Ae1 (Andrews, JISI 203 (1965) 721; Fe–C diagram). The
  *   supplied Ae3 fixes the line, so X_F,eq(Ae3) = 0 whichever Ae3 formula was used. When
  *   Ae3 ≤ Ae1 (near-eutectoid steels with the Mn-extended Ae3) or C₀ ≥ 0.77, no ferrite forms
- *   (physics.md §4). Ferrite stops growing once pearlite has started: the remaining austenite then
- *   sits on the extrapolated Acm line and transforms cooperatively.
+ *   (physics.md §4). Ferrite stops growing once pearlite has started (is present; a table's
+ *   incubation clock alone does not stop it): the remaining austenite then sits on the
+ *   extrapolated Acm line and transforms cooperatively.
  * - Pearlite, T_mid < Ae1 and T_mid > Bs, only once the carbon-enriched remaining austenite
  *   C_γ,rem = (C₀ − 0.02 X_F)/(1 − X_F) reaches the Hultgren-extrapolated Acm line
  *   C_Acm(T) = 0.77 + (T[°C] − 727)/314 (through (727 °C, 0.77 %C) and (1148 °C, 2.11 %C) of the
@@ -273,8 +274,8 @@ export class AusteniteDecomposition {
       if (austenite > 0 && T_mid < diffusionalTop_K) {
         let arrhenius = -1; // exp(−Q/RT_mid) of Li (1998), evaluated once per node when first needed
 
-        // Ferrite: Ae3 > T_mid > Bs, until pearlite starts.
-        if (ferriteForms && T_mid < Ae3_K && T_mid > Bs_K && kP === 0) {
+        // Ferrite: Ae3 > T_mid > Bs, until pearlite exists (Y_P > 0, not merely incubating).
+        if (ferriteForms && T_mid < Ae3_K && T_mid > Bs_K && nP === 0) {
           if (nF < 1) {
             if (useLi && arrhenius < 0) arrhenius = Math.exp(-LI1998_ACTIVATION_TEMPERATURE_K / T_mid);
             const u = Ae3_K - T_mid;
