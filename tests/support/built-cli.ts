@@ -8,6 +8,7 @@
 import { execFileSync, spawnSync } from "node:child_process";
 import { mkdirSync, mkdtempSync, rmSync } from "node:fs";
 import { join, resolve } from "node:path";
+import { afterAll, beforeAll } from "vitest";
 
 export const REPO = resolve(import.meta.dirname, "../..");
 
@@ -37,6 +38,25 @@ export function buildCli(): BuiltCli {
 
 export function removeBuild(cli: BuiltCli | undefined): void {
   if (cli) rmSync(cli.dir, { recursive: true, force: true });
+}
+
+/**
+ * For one test file: builds the CLI before its tests and makes a scratch folder
+ * out/<prefix>-XXXXXX, both removed after them. Call at the top level of the file; the getters
+ * are valid inside the tests.
+ */
+export function cliForThisFile(scratchPrefix: string): { readonly cli: () => BuiltCli; readonly scratch: () => string } {
+  let cli: BuiltCli | undefined;
+  let scratch: string | undefined;
+  beforeAll(() => {
+    cli = buildCli();
+    scratch = mkdtempSync(join(REPO, "out", `${scratchPrefix}-`));
+  });
+  afterAll(() => {
+    removeBuild(cli);
+    if (scratch) rmSync(scratch, { recursive: true, force: true });
+  });
+  return { cli: () => cli!, scratch: () => scratch! };
 }
 
 export interface CliRun {
