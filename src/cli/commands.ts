@@ -7,6 +7,7 @@ import { runCase } from "../io/run-case.js";
 import { caseSchema } from "../io/case-schema.js";
 import { SAFETY_NOTICE } from "../io/safety.js";
 import { registerLimitsCommand } from "./limits-command.js";
+import { registerSteelCommand } from "./steel-command.js";
 
 export function registerCommands(program: Command): void {
   program
@@ -25,6 +26,7 @@ export function registerCommands(program: Command): void {
       if (!opts.quiet) process.stdout.write(describeRun(summary, opts.out));
     });
 
+  registerSteelCommand(program);
   registerLimitsCommand(program);
 
   program

@@ -143,6 +143,13 @@ export function resolveSteel(m: SteelMaterialInput, initial_C: number): SteelSet
     timeScale: ts,
     kinetics: k.model === "li1998" ? { kind: "li1998" } : { kind: "table", ferrite: curve(k.ferrite), pearlite: curve(k.pearlite), bainite: curve(k.bainite) },
   };
+  if (transformation) {
+    // The kinetics model checks its own validity ranges when built; report them with the rest.
+    for (const w of new AusteniteDecomposition(decomposition, 1).warnings) {
+      const text = describeWarning(w);
+      if (!warnings.includes(text)) warnings.push(text);
+    }
+  }
   if (transformation && initial_C < critical.Ae3_C) {
     warnings.push(`initial temperature ${initial_C} °C lies below Ae3 ${critical.Ae3_C.toFixed(1)} °C; the piece is assumed fully austenitic at the start`);
   }
