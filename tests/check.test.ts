@@ -251,6 +251,7 @@ describe("tolerance rules and quantity paths", () => {
       "line.time_under_water_s": "time",
       "line.mean_cooling_rate_under_water_K_s": "rate",
       "energy.relative_error": "ledger",
+      "coil.worst_energy_relative_error": "ledger",
       "energy.enthalpy_change_J_m2": "other",
       "line.length_m": "position",
     };
@@ -265,6 +266,7 @@ describe("tolerance rules and quantity paths", () => {
       depths: [{ depth_mm: 0, recalescence_K: 1 }, { depth_mm: 3, recalescence_K: 2 }],
       twins: [{ depth_mm: 1, x_C: 5 }, { depth_mm: 1, x_C: 6 }],
       final: { T_C: { top: 700 }, finish: null },
+      product: { grain_model: "nucleation", notes: ["prose is not a result"] },
     });
     expect(flat).toEqual({
       "depths[depth_mm=0].recalescence_K": 1,
@@ -275,6 +277,7 @@ describe("tolerance rules and quantity paths", () => {
       "twins[1].x_C": 6,
       "final.T_C.top": 700,
       "final.finish": null,
+      "product.grain_model": "nucleation",
     });
   });
 });

@@ -16,7 +16,8 @@
  * Quantity paths: objects are dotted, array items are named by an identity key when every item has
  * a distinct one (`depths[depth_mm=3]`, `pyrometers[position_m=30]`), else by index.
  * Summary branches that echo the input or describe the run rather than its result (title, caution,
- * warnings, numerics, steel) are not blessed; every other number, text, true/false or null is.
+ * warnings, numerics and steel at the top; notes at any depth) are not blessed; every other number,
+ * text, true/false or null is.
  */
 import { createHash } from "node:crypto";
 import { z } from "zod";
@@ -28,8 +29,10 @@ export const BASELINE_VERSION = 1;
 /** At most this many history rows are blessed (first and last always among them). */
 export const HISTORY_ROWS = 50;
 
-/** Summary branches that are not results. */
+/** Top-level summary branches that are not results. */
 const NOT_RESULTS = new Set(["title", "caution", "warnings", "numerics", "steel"]);
+/** Keys that are prose, not results, wherever they appear. */
+const PROSE_KEYS = new Set(["notes", "note", "caution", "warnings"]);
 /** Keys that name an array item, in order of preference. */
 const IDENTITY_KEYS = ["name", "label", "depth_mm", "position_m", "time_s"];
 
@@ -90,7 +93,7 @@ function flattenInto(value: unknown, path: string, out: Record<string, Leaf>, sk
   }
   if (typeof value === "object") {
     for (const [key, v] of Object.entries(value as Record<string, unknown>)) {
-      if (key === skipKey) continue;
+      if (key === skipKey || PROSE_KEYS.has(key)) continue;
       flattenInto(v, path ? `${path}.${key}` : key, out);
     }
   }

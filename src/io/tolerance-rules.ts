@@ -14,7 +14,7 @@
  *
  * | class       | recognised by                                  | rule                      |
  * |-------------|------------------------------------------------|---------------------------|
- * | ledger      | `relative_error`                               | now ≤ 1e-4                |
+ * | ledger      | ends `relative_error`                          | now ≤ 1e-4                |
  * | rate        | ends `_K_s`                                    | 1 % relative              |
  * | temperature | ends `_C` or `_K`, or is `T_C`                 | 0.5 K absolute            |
  * | fraction    | a phase name, `phases`, `fractions`, `_fraction` | 0.005 absolute          |
@@ -91,7 +91,7 @@ const PHASE_NAMES: readonly string[] = PHASES;
 
 /** The class a single name segment announces, or null when it says nothing. */
 export function classOfSegment(name: string): ToleranceClass | null {
-  if (name === "relative_error") return "ledger";
+  if (name.endsWith("relative_error")) return "ledger";
   if (name.endsWith("_K_s")) return "rate";
   if (name === "T_C" || name.endsWith("_C") || name.endsWith("_K")) return "temperature";
   if (name === "phases" || name === "fractions" || name.endsWith("_fraction") || PHASE_NAMES.some((p) => name === p || name.startsWith(`${p}_`))) return "fraction";
