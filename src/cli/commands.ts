@@ -3,11 +3,12 @@
  */
 import { InvalidArgumentError, type Command } from "commander";
 import { z } from "zod";
-import { runCase } from "../io/run-case.js";
+import { runCaseIsolated } from "./run-in-worker.js";
 import { caseSchema } from "../io/case-schema.js";
 import { SAFETY_NOTICE } from "../io/safety.js";
 import { registerLimitsCommand } from "./limits-command.js";
 import { registerSteelCommand } from "./steel-command.js";
+import { registerCheckCommand } from "./check-command.js";
 
 export function registerCommands(program: Command): void {
   program
@@ -20,13 +21,14 @@ export function registerCommands(program: Command): void {
     .option("--force", "run even when the up-front work estimate exceeds the stated limits")
     .action(async (file: string, opts: { out: string; quiet?: boolean; workers?: number; force?: boolean }) => {
       const progress = progressPrinter("segments");
-      const { summary, warnings } = await runCase(file, opts.out, { workers: opts.workers, force: opts.force, onProgress: progress.update });
+      const { summary, warnings } = await runCaseIsolated(file, opts.out, { workers: opts.workers, force: opts.force, onProgress: progress.update });
       progress.done();
       for (const w of warnings) process.stderr.write(`warning: ${w}\n`);
       if (!opts.quiet) process.stdout.write(describeRun(summary, opts.out));
     });
 
   registerSteelCommand(program);
+  registerCheckCommand(program);
   registerLimitsCommand(program);
 
   program

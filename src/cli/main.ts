@@ -11,6 +11,7 @@ import { Command, CommanderError } from "commander";
 import { abortAllResultFolders, WriteError } from "../io/result-folder.js";
 import { InputError } from "../io/errors.js";
 import { registerCommands } from "./commands.js";
+import { stopActiveRun } from "./run-in-worker.js";
 
 export class ExitError extends Error {
   constructor(readonly code: number, message: string) {
@@ -20,8 +21,10 @@ export class ExitError extends Error {
 
 function onSignal(signal: NodeJS.Signals): void {
   abortAllResultFolders();
-  process.stderr.write(`recalesce: interrupted by ${signal}; no partial results were kept\n`);
-  process.exit(signal === "SIGINT" ? 130 : 143);
+  void stopActiveRun().finally(() => {
+    process.stderr.write(`recalesce: interrupted by ${signal}; no partial results were kept\n`);
+    process.exit(signal === "SIGINT" ? 130 : 143);
+  });
 }
 
 export async function main(argv: string[]): Promise<number> {

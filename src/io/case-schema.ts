@@ -290,6 +290,7 @@ export const caseSchema = z
   })
   .superRefine((c, ctx) => {
     c.output.depths_mm.forEach((d, i) => {
+      if (c.output.depths_mm.indexOf(d) !== i) ctx.addIssue({ code: "custom", path: ["output", "depths_mm", i], message: `depth ${d} mm is listed twice` });
       if (d > c.product.thickness_mm) ctx.addIssue({ code: "custom", path: ["output", "depths_mm", i], message: `depth ${d} mm lies outside the piece (0–${c.product.thickness_mm} mm)` });
     });
   });

@@ -15,13 +15,15 @@ export const DECIMALS = {
 
 /** Fixed decimals; never "-0.000". */
 export function fixed(v: number, decimals: number): string {
-  if (!Number.isFinite(v)) return "";
+  if (!Number.isFinite(v)) return String(v); // NaN or Infinity stays visible, never blank
+
   const s = v.toFixed(decimals);
   return /^-0\.?0*$/.test(s) ? s.slice(1) : s;
 }
 
 /** Rounds to fixed decimals and returns a number (for JSON). */
 export function round(v: number, decimals: number): number {
+  if (!Number.isFinite(v)) return v; // JSON writes null: visible, never a silent 0
   const r = Number(fixed(v, decimals));
   return Object.is(r, -0) ? 0 : r;
 }

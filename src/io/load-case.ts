@@ -45,6 +45,10 @@ export function parseJson(file: string, text: string): unknown {
       const column = pos - before.lastIndexOf("\n");
       where = ` at line ${line}, column ${column}`;
     }
+    if (!m && /end of (JSON )?input|Unterminated/i.test(msg)) {
+      const lines = text.split("\n");
+      where = ` at line ${lines.length}, column ${lines[lines.length - 1].length + 1} (the text ends too early)`;
+    }
     const reason = msg.replace(/\s*in JSON at position \d+.*$/s, "").replace(/^.*?JSON\.parse: /, "");
     throw new InputError(file, "", `malformed JSON${where}: ${reason}`);
   }
@@ -74,7 +78,17 @@ function deepestIssue(issue: z.core.$ZodIssue): z.core.$ZodIssue {
   return { ...best, path: [...issue.path, ...best.path] } as z.core.$ZodIssue;
 }
 
-export function zodToInputError(file: string, error: z.ZodError): InputError {
+/** The value at a path in the parsed input (undefined when absent). */
+function valueAt(data: unknown, path: ReadonlyArray<PropertyKey>): unknown {
+  let v: unknown = data;
+  for (const p of path) {
+    if (v === null || typeof v !== "object") return undefined;
+    v = (v as Record<PropertyKey, unknown>)[p];
+  }
+  return v;
+}
+
+export function zodToInputError(file: string, error: z.ZodError, data?: unknown): InputError {
   const issue = deepestIssue(error.issues[0]);
   let path = issue.path;
   let message = issue.message;
@@ -82,17 +96,17 @@ export function zodToInputError(file: string, error: z.ZodError): InputError {
     const keys = (issue as { keys: string[] }).keys;
     path = [...issue.path, keys[0]];
     message = message.startsWith("unknown element") ? message : `unknown key "${keys[0]}"; check the spelling against the case format`;
-  } else if (issue.code === "invalid_type" && /received undefined/.test(message)) {
-    message = `missing; ${message.replace(/,?\s*received undefined/, "")}`;
-  } else if (issue.code === "invalid_type" && (issue as { input?: unknown }).input === undefined) {
-    message = `missing; ${message}`;
+  } else if (issue.code === "invalid_type") {
+    const got = data === undefined ? undefined : valueAt(data, issue.path);
+    if (got === undefined) message = `missing; ${message.replace(/,?\s*received undefined/, "")}`;
+    else message = `${message}, got ${JSON.stringify(got)?.slice(0, 40) ?? typeof got}`;
   }
   return new InputError(file, formatPath(path) || "(top level)", message);
 }
 
 export function validateCase(file: string, data: unknown): Case {
   const parsed = caseSchema.safeParse(data);
-  if (!parsed.success) throw zodToInputError(file, parsed.error);
+  if (!parsed.success) throw zodToInputError(file, parsed.error, data);
   return parsed.data;
 }
 

@@ -13,6 +13,12 @@ export function abortAllResultFolders(): void {
   for (const f of open) f.abort();
 }
 
+/** The hidden folder a run of this process writes into before renaming it to `target`. */
+export function partialFolderFor(target: string): string {
+  const t = resolve(target);
+  return join(dirname(t), `.${basename(t)}.partial-${process.pid}`);
+}
+
 export class WriteError extends Error {
   constructor(readonly path: string, readonly reason: string) {
     super(`cannot write ${path}: ${reason}`);
@@ -20,7 +26,7 @@ export class WriteError extends Error {
   }
 }
 
-function reasonOf(e: unknown): string {
+export function reasonOf(e: unknown): string {
   const code = (e as { code?: string }).code;
   if (code === "EACCES" || code === "EPERM" || code === "EROFS") return "permission denied (read-only folder?)";
   if (code === "ENOSPC") return "disk full";
@@ -36,7 +42,7 @@ export class ResultFolder {
 
   constructor(target: string) {
     this.target = resolve(target);
-    this.partial = join(dirname(this.target), `.${basename(this.target)}.partial-${process.pid}`);
+    this.partial = partialFolderFor(this.target);
     try {
       rmSync(this.partial, { recursive: true, force: true });
       mkdirSync(this.partial, { recursive: true });

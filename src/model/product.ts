@@ -27,7 +27,7 @@ import { FerriteNucleation } from "../physics/ferrite-nucleation.js";
 import { grainFloorAt_nm, DEFAULT_BOUNDARY_ENERGY_J_m2 } from "../physics/grain-floor.js";
 import { pickeringStrength } from "../physics/strength.js";
 import { maynierBainiteHV, maynierMartensiteHV, mixtureHardnessHV, tensileFromHardnessRule_MPa } from "../physics/hardness.js";
-import { describeWarning, type Composition, type ValidityWarning } from "../physics/composition.js";
+import type { Composition, ValidityWarning } from "../physics/composition.js";
 import type { ThroughThicknessSolver } from "../numerics/conduction1d.js";
 import { KELVIN } from "./scenario.js";
 
@@ -234,9 +234,15 @@ export class ProductTracker {
     return out;
   }
 
+  /** One warning per model and quantity, holding the value furthest outside the range. */
   private warnOnce(w: ValidityWarning): void {
-    const text = describeWarning(w);
-    if (!this.warnings.some((x) => describeWarning(x) === text)) this.warnings.push(w);
+    const k = this.warnings.findIndex((x) => x.model === w.model && x.quantity === w.quantity);
+    if (k < 0) {
+      this.warnings.push(w);
+      return;
+    }
+    const outside = (x: ValidityWarning) => Math.max(x.min - x.value, x.value - x.max);
+    if (outside(w) > outside(this.warnings[k])) this.warnings[k] = w;
   }
 }
 

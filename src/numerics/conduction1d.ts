@@ -195,13 +195,13 @@ export class ThroughThicknessSolver {
 
   /**
    * Relative closure error of the energy ledger: |ΔH + Q_out| / scale, with scale the largest of
-   * |ΔH|, |Q_top| + |Q_bottom| and 1e-9·|H_0| (so an insulated piece, where both sides are ≈ 0,
+   * |ΔH|, |Q_top| + |Q_bottom| and 1e-6·|H_0| (so an insulated piece, where both sides are ≈ 0,
    * is judged against its own enthalpy content rather than against zero).
    */
   ledgerError(): number {
     const dH = this.enthalpy_J_m2() - this.initialEnthalpy_J_m2;
     const Q = this.heatOutTop_J_m2 + this.heatOutBottom_J_m2;
-    const scale = Math.max(Math.abs(dH), Math.abs(this.heatOutTop_J_m2) + Math.abs(this.heatOutBottom_J_m2), 1e-9 * Math.abs(this.initialEnthalpy_J_m2), 1e-300);
+    const scale = Math.max(Math.abs(dH), Math.abs(this.heatOutTop_J_m2) + Math.abs(this.heatOutBottom_J_m2), 1e-6 * Math.abs(this.initialEnthalpy_J_m2), 1e-300);
     return Math.abs(dH + Q) / scale;
   }
 
