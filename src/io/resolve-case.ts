@@ -126,26 +126,29 @@ export function speedSchedule(l: LineInput): SpeedSchedule {
 export function readEntryProfile(caseFile: string, csvPath: string): Array<[number, number]> {
   const file = resolvePath(dirname(caseFile), csvPath);
   const text = readTextFile(file);
-  let rows: string[][];
+  let parsed: Array<{ record: string[]; info: { lines: number } }>;
   try {
-    rows = parseCsv(text, { skip_empty_lines: true, trim: true, relax_column_count: true }) as string[][];
+    parsed = parseCsv(text, { skip_empty_lines: true, trim: true, relax_column_count: true, info: true }) as unknown as Array<{ record: string[]; info: { lines: number } }>;
   } catch (e) {
     throw new InputError(file, "", `malformed CSV: ${(e as Error).message.split("\n")[0]}`);
   }
-  if (rows.length < 2) throw new InputError(file, "", "expected a header `position_m,T_C` and at least one row");
-  const header = rows[0].map((h) => h.trim());
+  if (parsed.length < 2) throw new InputError(file, "", "expected a header `position_m,T_C` and at least one row");
+  const header = parsed[0].record.map((h) => h.trim());
   const ip = header.indexOf("position_m");
   const it = header.indexOf("T_C");
   if (ip < 0 || it < 0) throw new InputError(file, "header", "expected columns position_m,T_C");
   const out: Array<[number, number]> = [];
-  for (let r = 1; r < rows.length; r++) {
-    const x = Number(rows[r][ip]);
-    const T = Number(rows[r][it]);
-    if (rows[r].length !== header.length || !Number.isFinite(x) || !Number.isFinite(T)) {
-      throw new InputError(file, `row ${r + 1}`, "expected two numbers: position_m [m], T_C [°C]");
+  for (let r = 1; r < parsed.length; r++) {
+    const row = parsed[r].record;
+    // The row number as a text editor counts lines (blank lines included).
+    const where = `row ${parsed[r].info.lines}`;
+    const x = Number(row[ip]);
+    const T = Number(row[it]);
+    if (row.length !== header.length || row[ip] === "" || row[it] === "" || !Number.isFinite(x) || !Number.isFinite(T)) {
+      throw new InputError(file, where, "expected two numbers: position_m [m], T_C [°C]");
     }
-    if (T <= 0 || T > 1500) throw new InputError(file, `row ${r + 1}`, `T_C ${T} outside 0–1500 °C`);
-    if (out.length && x <= out[out.length - 1][0]) throw new InputError(file, `row ${r + 1}`, "position_m must increase from row to row (m)");
+    if (T <= 0 || T > 1500) throw new InputError(file, where, `T_C ${T} outside 0–1500 °C`);
+    if (out.length && x <= out[out.length - 1][0]) throw new InputError(file, where, "position_m must increase from row to row (m)");
     out.push([x, T]);
   }
   return out;

@@ -131,6 +131,7 @@ export class ThroughThicknessSolver {
   private readonly scratch: Float64Array;
   private readonly Eiter: Float64Array; // mixture enthalpy at the previous iterate (secant slope)
   private readonly Titer: Float64Array; // previous iterate
+  private readonly Elin: Float64Array; // enthalpy the last linear solve balanced
   private lastDt = 0;
 
   constructor(o: SolverOptions) {
@@ -179,6 +180,7 @@ export class ThroughThicknessSolver {
     this.scratch = f();
     this.Eiter = f();
     this.Titer = f();
+    this.Elin = f();
     this.evaluate(this.T, this.fractions);
     this.commitEnthalpy();
     let H = 0;
@@ -353,7 +355,9 @@ export class ThroughThicknessSolver {
       }
       solveTridiagonal(n, a, b, c, d, Tnew, this.scratch);
       change = 0;
+      const Elin = this.Elin;
       for (let i = 0; i < n; i++) {
+        Elin[i] = E[i] + C[i] * (Tnew[i] - Tstar[i]);
         const diff = Math.abs(Tnew[i] - Tstar[i]);
         if (diff > change) change = diff;
         Tstar[i] = Tnew[i];
@@ -378,6 +382,7 @@ export class ThroughThicknessSolver {
     this.Tprev.set(T);
     if (evolution) evolution.accept();
     this.evaluate(Tnew, this.fractions);
+    if (evolution) this.conserveEnthalpy(Tnew);
     const anyFixed = top.kind === "fixed" || bottom.kind === "fixed";
     const Eoldstep = this.scratch; // reuse: old enthalpy needed for fixed-temperature faces
     const condOldPrev = this.a; // reuse: old conduction needed for fixed-temperature faces
@@ -405,6 +410,31 @@ export class ThroughThicknessSolver {
     }
     this.time_s += dt;
     this.lastDt = dt;
+  }
+
+  /**
+   * Enthalpy is the conserved variable: the linear solve balanced the node fluxes against the
+   * linearised enthalpy Elin, so the committed temperature is the one whose true enthalpy (with the
+   * committed fractions) equals Elin. With a steep secant Jacobian (latent heat) the stop test on T
+   * alone can leave E(T) − Elin far above round-off; a Newton correction per node (T += r/C)
+   * removes it, so the energy ledger closes independently of the Picard tolerance. The correction
+   * moves T by less than the tolerance, and is skipped when already below 1e-10 K equivalent.
+   */
+  private conserveEnthalpy(Tnew: Float64Array): void {
+    const n = this.nodes;
+    const E = this.E;
+    const C = this.C;
+    const Elin = this.Elin;
+    for (let pass = 0; pass < 3; pass++) {
+      let worst = 0;
+      for (let i = 0; i < n; i++) {
+        const r = Math.abs(Elin[i] - E[i]) / C[i];
+        if (r > worst) worst = r;
+      }
+      if (worst < 1e-10) return;
+      for (let i = 0; i < n; i++) Tnew[i] += (Elin[i] - E[i]) / C[i];
+      this.evaluate(Tnew, this.fractions);
+    }
   }
 
   /** Stores E at the committed state and the conduction into each node (faces excluded). */
