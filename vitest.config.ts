@@ -3,7 +3,8 @@ import { defineConfig } from "vitest/config";
 export default defineConfig({
   test: {
     include: ["tests/**/*.test.ts"],
-    testTimeout: 60_000,
+    testTimeout: 120_000,
+    hookTimeout: 180_000,
     pool: "forks",
   },
 });

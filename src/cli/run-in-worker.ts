@@ -8,6 +8,7 @@ import { existsSync, rmSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { Worker } from "node:worker_threads";
 import { runCase, type RunOptions } from "../io/run-case.js";
+import { loadCase } from "../io/load-case.js";
 import { InputError } from "../io/errors.js";
 import { WriteError, partialFolderFor } from "../io/result-folder.js";
 
@@ -29,6 +30,7 @@ export async function runCaseIsolated(file: string, out: string, options: RunOpt
     const o = await runCase(file, out, options);
     return { summary: o.summary, warnings: o.warnings };
   }
+  loadCase(file); // bad input fails here, before a thread is started
   const worker = new Worker(path, { workerData: { file, out, workers: options.workers, force: options.force } });
   active = { worker, out };
   try {
