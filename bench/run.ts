@@ -71,4 +71,5 @@ if (!only || only === "conduction") {
   out.heap = heapGrowth();
 }
 if (!only || only === "coupled") out.coupled = benchCoupled();
+if (!only || only === "coil") out.coil = (await import("./coil.js")).benchCoil();
 process.stdout.write(JSON.stringify(out, null, 2) + "\n");

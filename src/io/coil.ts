@@ -60,6 +60,9 @@ function workerFile(): string | null {
   return existsSync(path) ? path : null;
 }
 
+/** Serial work [s] per worker below which starting threads does not pay (measured start-up ≈ 0.5–0.8 s). */
+const THREAD_WORTH_s = 1.5;
+
 export interface CoilRunOptions {
   /** Number of worker threads (1 = in this thread). Default: available cores. */
   readonly workers?: number;
@@ -71,12 +74,27 @@ export interface CoilRunOptions {
 export async function runCoil(file: string, c: Case, options: CoilRunOptions = {}): Promise<SegmentResult[]> {
   if (!("line" in c.cooling) || !c.cooling.coil) throw new Error("runCoil needs a case with cooling.line and cooling.coil");
   const segments = coilSegments(file, c.cooling.coil);
-  const workers = Math.max(1, Math.min(options.workers ?? c.cooling.coil.workers ?? availableParallelism(), segments.length));
+  const requested = options.workers ?? c.cooling.coil.workers;
+  let workers = Math.max(1, Math.min(requested ?? availableParallelism(), segments.length));
   const worker = workerFile();
   const results: SegmentResult[] = new Array(segments.length);
   let done = 0;
-  if (workers === 1 || worker === null) {
-    for (const seg of segments) {
+  // The first segments run here and are timed: a worker thread costs about half a second to start
+  // (module loading, tables, JIT), so unless the user asked for a number of workers, threads are
+  // used only when the remaining segments would take longer than that per core saved.
+  // The first segment warms up this thread; the second is timed.
+  const first = Math.min(2, segments.length);
+  let perSegment_s = 0;
+  for (let k = 0; k < first; k++) {
+    const t0 = performance.now();
+    results[k] = simulateSegment(file, c, segments[k]);
+    perSegment_s = (performance.now() - t0) / 1000;
+    options.onProgress?.(++done, segments.length);
+  }
+  const rest = segments.slice(first);
+  if (requested === undefined && perSegment_s * rest.length < THREAD_WORTH_s * workers) workers = 1;
+  if (workers === 1 || worker === null || rest.length === 0) {
+    for (const seg of rest) {
       results[seg.index] = simulateSegment(file, c, seg);
       options.onProgress?.(++done, segments.length);
     }
@@ -86,7 +104,7 @@ export async function runCoil(file: string, c: Case, options: CoilRunOptions = {
   const pool = new Piscina({ filename: worker, minThreads: workers, maxThreads: workers });
   try {
     await Promise.all(
-      segments.map(async (seg) => {
+      rest.map(async (seg) => {
         results[seg.index] = (await pool.run({ file, caseData: c, segment: seg })) as SegmentResult;
         options.onProgress?.(++done, segments.length);
       }),

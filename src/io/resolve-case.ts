@@ -15,6 +15,23 @@ import { readTextFile } from "./load-case.js";
 import { parse as parseCsv } from "csv-parse/sync";
 import { dirname, resolve as resolvePath } from "node:path";
 
+/**
+ * Steel set-up (property tables, kinetics set-up) is immutable and costs 10–20 ms to build, so the
+ * segments of a coil and the points of a design search share it: cached by material and entry
+ * temperature (which selects the density of a density table and the below-Ae3 warning).
+ */
+const steelCache = new Map<string, SteelSetup>();
+function cachedSteel(material: Case["material"], initial_C: number): SteelSetup {
+  const key = JSON.stringify([material, initial_C]);
+  let s = steelCache.get(key);
+  if (!s) {
+    s = resolveSteel(material, initial_C);
+    if (steelCache.size >= 16) steelCache.delete(steelCache.keys().next().value as string);
+    steelCache.set(key, s);
+  }
+  return s;
+}
+
 /** Face input → boundary law. */
 export function faceLaw(f: FaceInput): FaceLaw {
   if (f.surface_C !== undefined) return { kind: "fixed", T_K: f.surface_C + KELVIN };
@@ -183,7 +200,7 @@ export function resolveCase(file: string, c: Case, options: PointOptions = {}): 
   let material: MaterialModel;
   let steel: SteelSetup | undefined;
   if (c.material.composition_wt_pct) {
-    steel = resolveSteel(c.material, c.product.initial_C);
+    steel = cachedSteel(c.material, c.product.initial_C);
     material = steel.material;
   } else {
     const m = c.material;

@@ -198,7 +198,7 @@ export class ProductTracker {
       else {
         const h = mixtureHardnessHV(c, r700, fractions);
         hardness = h.hardness_HV;
-        for (const w of h.warnings) if (w.quantity !== "austenite") this.warnOnce(w);
+        for (const w of h.warnings) if (w.quantity !== "retained austenite fraction") this.warnOnce(w); // retained austenite is reported as a phase fraction, not as a model-range problem
         const fp = fractions[FERRITE] + fractions[PEARLITE];
         const hard = fractions[BAINITE] + fractions[MARTENSITE];
         let ts = 0;
