@@ -16,6 +16,7 @@
  * broken baseline file, named in one line. `--update` re-blesses (the only way baselines change)
  * and exits 0; `--junit FILE` writes JUnit XML, one testcase per case.
  */
+import { SAFETY_NOTICE } from "../io/safety.js";
 import type { Command } from "commander";
 import { writeFileAtomic } from "../io/atomic-file.js";
 import { checkFolder, type CheckOutcome, type CaseOutcome } from "../io/check-folder.js";
@@ -81,6 +82,7 @@ export function describeCheck(outcome: CheckOutcome): string {
     const where = moved.length ? ` in ${plural(regressedCases, "case")}` : "";
     const unblessed = notBlessed ? `, ${notBlessed} not blessed` : "";
     lines.push("", `check: ${plural(outcome.cases.length, "case")}, ${plural(moved.length, "regression")}${where}${unblessed}`);
+    lines.push(`caution: ${SAFETY_NOTICE}`);
   }
   return lines.join("\n") + "\n";
 }

@@ -9,6 +9,10 @@ import { SAFETY_NOTICE } from "../io/safety.js";
 import { registerLimitsCommand } from "./limits-command.js";
 import { registerSteelCommand } from "./steel-command.js";
 import { registerCheckCommand } from "./check-command.js";
+import { registerDesignCommand } from "./design-command.js";
+import { registerCalibrateCommand } from "./calibrate-command.js";
+import { registerSweepCommand } from "./sweep-command.js";
+import { registerMergeCommand } from "./merge-command.js";
 
 export function registerCommands(program: Command): void {
   program
@@ -30,6 +34,10 @@ export function registerCommands(program: Command): void {
   registerSteelCommand(program);
   registerCheckCommand(program);
   registerLimitsCommand(program);
+  registerDesignCommand(program);
+  registerCalibrateCommand(program);
+  registerSweepCommand(program);
+  registerMergeCommand(program);
 
   program
     .command("schema")

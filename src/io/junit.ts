@@ -4,6 +4,7 @@
  * worst ones; a case without a baseline is <skipped>. No times or host names, so the same check
  * gives the same file.
  */
+import { SAFETY_NOTICE } from "./safety.js";
 import type { CheckOutcome } from "./check-folder.js";
 import { formatDifferenceTable, showDifference, showValue } from "./difference-table.js";
 
@@ -32,6 +33,6 @@ export function junitXml(outcome: CheckOutcome, suiteName = "recalesce check"): 
       lines.push(`${open}/>`);
     }
   }
-  lines.push("  </testsuite>", "</testsuites>");
+  lines.push(`    <system-out>${escapeXml(`caution: ${SAFETY_NOTICE}`)}</system-out>`, "  </testsuite>", "</testsuites>");
   return lines.join("\n") + "\n";
 }
