@@ -37,6 +37,7 @@
  * The solver allocates only in its constructor; `step` is allocation-free.
  */
 import { solveTridiagonal } from "./tridiagonal.js";
+import { evaluateMixture, secantHeatCapacity } from "./mixture-properties.js";
 import { ConvectionRadiation, type FaceLaw } from "./face-law.js";
 import type { PropertyTables } from "./property-table.js";
 
@@ -304,17 +305,7 @@ export class ThroughThicknessSolver {
       // With phase evolution the fractions move with T*, so E(T*, X(T*)) changes faster than C
       // says: from the second iterate on, use the secant slope of E over the last two iterates
       // (never below C) as the Jacobian. This only speeds convergence; the fixed point is the same.
-      if (evolution && iterations > 1) {
-        const Eiter = this.Eiter;
-        const Titer = this.Titer;
-        for (let i = 0; i < n; i++) {
-          const dT = Tstar[i] - Titer[i];
-          if (dT > 1e-9 || dT < -1e-9) {
-            const slope = (E[i] - Eiter[i]) / dT;
-            if (slope > C[i]) C[i] = slope < 1e3 * C[i] ? slope : 1e3 * C[i];
-          }
-        }
-      }
+      if (evolution && iterations > 1) secantHeatCapacity(n, E, Tstar, this.Eiter, this.Titer, C);
       if (evolution) {
         this.Eiter.set(E);
         this.Titer.set(Tstar);
@@ -454,91 +445,7 @@ export class ThroughThicknessSolver {
 
   /** Mixture E, C, k at temperatures Tk with fractions X (tables interpolated linearly). */
   private evaluate(Tk: Float64Array, X: Float64Array[]): void {
-    if (this.tables.phases === 1) {
-      this.evaluateSingle(Tk);
-      return;
-    }
-    const tables = this.tables;
-    const n = this.nodes;
-    const E = this.E;
-    const C = this.C;
-    const k = this.k;
-    const T0 = tables.T0_K;
-    const inv = 1 / tables.dT_K;
-    const last = tables.n - 1;
-    const phases = tables.phases;
-    const latent = this.latentHeat;
-    const data0 = tables.data[0];
-    for (let i = 0; i < n; i++) {
-      const u = (Tk[i] - T0) * inv;
-      let j = Math.floor(u);
-      let extra = 0; // temperature beyond the grid [K]
-      if (j < 0) {
-        extra = u * tables.dT_K;
-        j = 0;
-      } else if (j >= last) {
-        extra = (u - last) * tables.dT_K;
-        j = last - 1;
-      }
-      const f = extra === 0 ? u - j : j === 0 ? 0 : 1;
-      const o = 3 * j;
-      let e = 0;
-      let cap = 0;
-      let cond = 0;
-      for (let p = 0; p < phases; p++) {
-        const x = X[p][i];
-        if (x === 0) continue;
-        const data = tables.data[p];
-        cond += x * (data[o + 2] + f * (data[o + 5] - data[o + 2]));
-        if (latent) {
-          const cp = data[o + 1] + f * (data[o + 4] - data[o + 1]);
-          e += x * (data[o] + f * (data[o + 3] - data[o]) + extra * cp);
-          cap += x * cp;
-        }
-      }
-      if (!latent) {
-        const cp = data0[o + 1] + f * (data0[o + 4] - data0[o + 1]);
-        e = data0[o] + f * (data0[o + 3] - data0[o]) + extra * cp;
-        cap = cp;
-      }
-      E[i] = e;
-      C[i] = cap;
-      k[i] = cond;
-    }
-  }
-
-  /** evaluate() for a single-phase material (no mixture loop). */
-  private evaluateSingle(Tk: Float64Array): void {
-    const tables = this.tables;
-    const n = this.nodes;
-    const E = this.E;
-    const C = this.C;
-    const k = this.k;
-    const T0 = tables.T0_K;
-    const dT = tables.dT_K;
-    const inv = 1 / dT;
-    const last = tables.n - 1;
-    const data = tables.data[0];
-    for (let i = 0; i < n; i++) {
-      const u = (Tk[i] - T0) * inv;
-      let j = Math.floor(u);
-      let f = u - j;
-      let extra = 0;
-      if (j < 0) {
-        extra = u * dT;
-        j = 0;
-        f = 0;
-      } else if (j >= last) {
-        extra = (u - last) * dT;
-        j = last - 1;
-        f = 1;
-      }
-      const o = 3 * j;
-      const cp = data[o + 1] + f * (data[o + 4] - data[o + 1]);
-      E[i] = data[o] + f * (data[o + 3] - data[o]) + extra * cp;
-      C[i] = cp;
-      k[i] = data[o + 2] + f * (data[o + 5] - data[o + 2]);
-    }
+    evaluateMixture(this.tables, this.latentHeat, this.nodes, Tk, X, this.E, this.C, this.k);
   }
 }
 
