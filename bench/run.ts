@@ -73,5 +73,6 @@ if (!only || only === "conduction") {
 if (!only || only === "coupled") out.coupled = benchCoupled();
 if (!only || only === "design") out.design = await (await import("./design.js")).benchDesign();
 if (!only || only === "sweep") out.sweep = await (await import("./sweep.js")).benchSweep();
+if (!only || only === "conduction2d") out.conduction2d = (await import("./conduction2d.js")).benchConduction2d();
 if (!only || only === "coil") out.coil = (await import("./coil.js")).benchCoil();
 process.stdout.write(JSON.stringify(out, null, 2) + "\n");

@@ -81,15 +81,16 @@ function describeRun(summary: Record<string, unknown>, out: string): string {
     end_time_s: number;
     final: { T_C: { top: number; centre: number; bottom: number; mean: number }; phases?: Record<string, number> };
     energy: { relative_error: number };
-    numerics: { scheme: string; cells: number; steps: number; sub_steps: number };
+    numerics: { scheme: string; cells?: number; thickness_cells?: number; width_cells?: number; steps: number; sub_steps: number };
+    section?: { width_mm: number };
     coiling?: { T_C: { top: number; mean: number } };
     pyrometers?: Array<{ position_m: number; T_C: number }>;
     coil?: { segments: number; head: { coiling_mean_C: number }; body: { coiling_mean_C: number }; tail: { coiling_mean_C: number }; coiling_mean_C: { spread_K: number } };
   };
-  const t = s.final.T_C;
+  const t = s.final.T_C as { top: number; centre: number; bottom: number; mean: number; edge?: number; corner?: number };
   const lines = [
     `${s.title}`,
-    `  after ${s.end_time_s} s: top ${t.top.toFixed(1)} °C, centre ${t.centre.toFixed(1)} °C, bottom ${t.bottom.toFixed(1)} °C, mean ${t.mean.toFixed(1)} °C`,
+    `  after ${s.end_time_s} s: top ${t.top.toFixed(1)} °C, centre ${t.centre.toFixed(1)} °C, bottom ${t.bottom.toFixed(1)} °C${t.edge === undefined ? "" : `, edge ${t.edge.toFixed(1)} °C, corner ${t.corner!.toFixed(1)} °C`}, mean ${t.mean.toFixed(1)} °C`,
   ];
   if (s.final.phases) {
     lines.push("  phases (mass average): " + Object.entries(s.final.phases).map(([k, v]) => `${k} ${(v * 100).toFixed(1)} %`).join(", "));
@@ -101,7 +102,8 @@ function describeRun(summary: Record<string, unknown>, out: string): string {
       `  coil (${s.coil.segments} segments): head ${s.coil.head.coiling_mean_C.toFixed(1)} °C, body ${s.coil.body.coiling_mean_C.toFixed(1)} °C, tail ${s.coil.tail.coiling_mean_C.toFixed(1)} °C, spread ${s.coil.coiling_mean_C.spread_K.toFixed(1)} K (coil.csv)`,
     );
   }
-  lines.push(`  ${s.numerics.scheme}, ${s.numerics.cells} cells, ${s.numerics.steps} steps (${s.numerics.sub_steps} sub-steps); energy ledger closes to ${s.energy.relative_error.toExponential(1)}`);
+  const grid = s.numerics.width_cells === undefined ? `${s.numerics.cells} cells` : `${s.numerics.thickness_cells} × ${s.numerics.width_cells} cells (thickness × half-width)`;
+  lines.push(`  ${s.numerics.scheme}, ${grid}, ${s.numerics.steps} steps (${s.numerics.sub_steps} sub-steps); energy ledger closes to ${s.energy.relative_error.toExponential(1)}`);
   lines.push(`  results in ${out}/ (summary.json, history.csv, profile.csv)`);
   lines.push(`  caution: ${SAFETY_NOTICE}`);
   return lines.join("\n") + "\n";

@@ -75,6 +75,8 @@ export const stageSchema = z.strictObject({
   label: z.string().optional(),
   top: faceSchema,
   bottom: faceSchema,
+  /** The strip edge (cross-sections only). */
+  edge: faceSchema.optional(),
 });
 
 const compositionSchema = z
@@ -161,7 +163,13 @@ export const materialSchema = z
   });
 
 export const numericsSchema = z.strictObject({
-  scheme: z.enum(["explicit", "implicit", "crank-nicolson"], { error: 'expected "explicit", "implicit" or "crank-nicolson"' }).default("crank-nicolson"),
+  scheme: z
+    .enum(["explicit", "implicit", "crank-nicolson", "adi", "adi-douglas"], { error: 'expected "explicit", "implicit", "crank-nicolson" (strip) or "explicit", "adi", "adi-douglas" (cross-section)' })
+    .default("crank-nicolson"),
+  /** Cells across the (half-)width of a cross-section. */
+  width_cells: z.number({ error: "expected a whole number of cells" }).int("expected a whole number of cells").refine((v) => v >= 2 && v <= 2000, "must lie in 2–2000").optional(),
+  /** Model half the width with a symmetry plane at mid-width (default true). */
+  symmetric: z.boolean({ error: "expected true or false" }).optional(),
   cells: z
     .number({ error: "expected a whole number of cells" })
     .int("expected a whole number of cells")
@@ -174,6 +182,8 @@ export const numericsSchema = z.strictObject({
 export const outputSchema = z.strictObject({
   depths_mm: z.array(nonNegative("mm"), { error: "expected a list of depths in mm" }).min(1, "give at least one depth (mm)"),
   interval_s: positive("s"),
+  /** Cross-sections: extra output points, x from mid-width towards the edge, y depth from the top [mm]. */
+  points_mm: z.array(z.strictObject({ x_mm: nonNegative("mm"), y_mm: nonNegative("mm") })).optional(),
   /** Also run the case with latent heat off and report the grain-size penalty per depth (default true). */
   recalescence_penalty: z.boolean({ error: "expected true or false" }).optional(),
 });
@@ -282,6 +292,8 @@ export const caseSchema = z
       thickness_mm: positive("mm").refine((v) => v <= 1000, "must be ≤ 1000 mm"),
       initial_C: celsius,
       width_mm: positive("mm").optional(),
+      /** "strip" (1-D through the thickness, default) or "cross-section" (2-D thickness × width). */
+      section: z.enum(["strip", "cross-section"], { error: 'expected "strip" or "cross-section"' }).optional(),
     }),
     material: materialSchema,
     cooling: z.union([stagesCoolingSchema, lineCoolingSchema], { error: "expected cooling.stages (a list of stages) or cooling.line (a run-out table)" }),
@@ -289,6 +301,34 @@ export const caseSchema = z
     output: outputSchema,
   })
   .superRefine((c, ctx) => {
+    const section = c.product.section === "cross-section";
+    const strip = ["implicit", "crank-nicolson"];
+    if (section) {
+      if (c.product.width_mm === undefined) ctx.addIssue({ code: "custom", path: ["product", "width_mm"], message: "a cross-section needs width_mm (mm)" });
+      if (c.numerics.width_cells === undefined) ctx.addIssue({ code: "custom", path: ["numerics", "width_cells"], message: "a cross-section needs width_cells (cells across the half-width)" });
+      if (strip.includes(c.numerics.scheme)) ctx.addIssue({ code: "custom", path: ["numerics", "scheme"], message: 'a cross-section runs with "explicit", "adi" or "adi-douglas"' });
+      if (!("stages" in c.cooling)) ctx.addIssue({ code: "custom", path: ["cooling"], message: "a cross-section runs with cooling.stages (line and coil runs are 1-D)" });
+      else
+        c.cooling.stages.forEach((st, i) => {
+          if (!st.edge) ctx.addIssue({ code: "custom", path: ["cooling", "stages", i, "edge"], message: "missing; a cross-section needs a boundary condition on the edge" });
+        });
+      const halfWidth = (c.product.width_mm ?? 0) / 2;
+      (c.output.points_mm ?? []).forEach((p, i) => {
+        if (p.x_mm > halfWidth) ctx.addIssue({ code: "custom", path: ["output", "points_mm", i, "x_mm"], message: `lies outside the half-width (0–${halfWidth} mm from mid-width)` });
+        if (p.y_mm > c.product.thickness_mm) ctx.addIssue({ code: "custom", path: ["output", "points_mm", i, "y_mm"], message: `lies outside the thickness (0–${c.product.thickness_mm} mm)` });
+      });
+    } else {
+      if (c.numerics.scheme === "adi" || c.numerics.scheme === "adi-douglas") ctx.addIssue({ code: "custom", path: ["numerics", "scheme"], message: 'ADI schemes are for product.section "cross-section"' });
+      for (const key of ["width_cells", "symmetric"] as const) {
+        if (c.numerics[key] !== undefined) ctx.addIssue({ code: "custom", path: ["numerics", key], message: 'only for product.section "cross-section"' });
+      }
+      if (c.output.points_mm !== undefined) ctx.addIssue({ code: "custom", path: ["output", "points_mm"], message: 'only for product.section "cross-section"' });
+      if ("stages" in c.cooling) {
+        c.cooling.stages.forEach((st, i) => {
+          if (st.edge) ctx.addIssue({ code: "custom", path: ["cooling", "stages", i, "edge"], message: 'only for product.section "cross-section"' });
+        });
+      }
+    }
     c.output.depths_mm.forEach((d, i) => {
       if (c.output.depths_mm.indexOf(d) !== i) ctx.addIssue({ code: "custom", path: ["output", "depths_mm", i], message: `depth ${d} mm is listed twice` });
       if (d > c.product.thickness_mm) ctx.addIssue({ code: "custom", path: ["output", "depths_mm", i], message: `depth ${d} mm lies outside the piece (0–${c.product.thickness_mm} mm)` });

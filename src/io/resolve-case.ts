@@ -6,6 +6,7 @@ import type { Case, FaceInput } from "./case-schema.js";
 import { ConvectionRadiation, type FaceLaw } from "../numerics/face-law.js";
 import { buildPropertyTables, evaluateProperty } from "../numerics/property-table.js";
 import { KELVIN, type MaterialModel, type Scenario, type Stage } from "../model/scenario.js";
+import type { Scheme } from "../numerics/conduction1d.js";
 import { InputError } from "./errors.js";
 import { resolveSteel, type SteelSetup } from "../model/steel.js";
 import { DEFAULT_IMPINGEMENT_m, trackPoint, type LineSpec, type TrackedPoint, type ZoneFace } from "../model/line.js";
@@ -21,7 +22,7 @@ import { dirname, resolve as resolvePath } from "node:path";
  * temperature (which selects the density of a density table and the below-Ae3 warning).
  */
 const steelCache = new Map<string, SteelSetup>();
-function cachedSteel(material: Case["material"], initial_C: number): SteelSetup {
+export function cachedSteel(material: Case["material"], initial_C: number): SteelSetup {
   const key = JSON.stringify([material, initial_C]);
   let s = steelCache.get(key);
   if (!s) {
@@ -253,7 +254,7 @@ export function resolveCase(file: string, c: Case, options: PointOptions = {}): 
     material,
     stages,
     numerics: {
-      scheme: c.numerics.scheme,
+      scheme: c.numerics.scheme as Scheme, // ADI schemes are refused for strips by the schema
       cells: c.numerics.cells,
       dt_s: c.numerics.time_step_s,
       tolerance_K: c.numerics.picard_tolerance_K ?? 1e-3,

@@ -4,6 +4,7 @@
 import { loadCase } from "./load-case.js";
 import { coilSegments, resolveCase, type ResolvedCase } from "./resolve-case.js";
 import { runCoil, type SegmentResult } from "./coil.js";
+import { resolveSection, runSectionCase, sectionCellSteps } from "./run-section.js";
 import { simulate, type SimulationResult } from "../model/simulate.js";
 import { ResultFolder, type TextStream } from "./result-folder.js";
 import { DECIMALS, decimalsForColumn, fixed, round, significant } from "./format.js";
@@ -17,7 +18,8 @@ import { InputError } from "./errors.js";
 
 export interface RunOutcome {
   readonly summary: Record<string, unknown>;
-  readonly result: SimulationResult;
+  /** The 1-D result (absent for cross-sections, whose result is in the files). */
+  readonly result?: SimulationResult;
   readonly warnings: string[];
 }
 
@@ -413,6 +415,15 @@ export interface RunOptions {
  */
 export async function runCase(file: string, outDir: string, options: RunOptions = {}): Promise<RunOutcome> {
   const c = loadCase(file);
+  if (c.product.section === "cross-section") {
+    const s = resolveSection(c).scenario;
+    const cellSteps = sectionCellSteps(s);
+    if (!options.force && cellSteps > WORK_LIMITS.cellSteps) {
+      throw new InputError(file, "numerics.time_step_s", `the run needs about ${cellSteps.toExponential(2)} cell-steps, above the limit of ${WORK_LIMITS.cellSteps.toExponential(0)}; use a longer step, fewer cells, or --force`);
+    }
+    const o = runSectionCase(file, c, outDir);
+    return { summary: o.summary, warnings: o.warnings };
+  }
   if (!("line" in c.cooling) || !c.cooling.coil) return runCaseFile(file, outDir, options.force);
   const segments = coilSegments(file, c.cooling.coil);
   const body = segments[Math.floor((segments.length - 1) / 2)];
