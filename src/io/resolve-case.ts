@@ -197,29 +197,29 @@ export interface PointOptions {
   readonly entry_C?: number;
 }
 
-export function resolveCase(file: string, c: Case, options: PointOptions = {}): ResolvedCase {
-  let material: MaterialModel;
-  let steel: SteelSetup | undefined;
+/**
+ * The material of a case: a steel (cached set-up, see cachedSteel) or a non-transforming material
+ * from constant-or-table k, c_p and ρ (volumetric heat capacity ρ·c_p tabulated once).
+ */
+export function resolveMaterial(c: Case): { material: MaterialModel; steel?: SteelSetup } {
   if (c.material.composition_wt_pct) {
-    steel = cachedSteel(c.material, c.product.initial_C);
-    material = steel.material;
-  } else {
-    const m = c.material;
-    const k = m.conductivity_W_mK!;
-    const cp = m.specific_heat_J_kgK!;
-    const rho = m.density_kg_m3!;
-    const constant = typeof k === "number" && typeof cp === "number" && typeof rho === "number";
-    const tables = buildPropertyTables(
-      [
-        {
-          heatCapacity: (T) => evaluateProperty(rho, T - KELVIN) * evaluateProperty(cp, T - KELVIN),
-          conductivity: (T) => evaluateProperty(k, T - KELVIN),
-        },
-      ],
-      constant,
-    );
-    material = { tables, latentHeat: true };
+    const steel = cachedSteel(c.material, c.product.initial_C);
+    return { material: steel.material, steel };
   }
+  const m = c.material;
+  const k = m.conductivity_W_mK!;
+  const cp = m.specific_heat_J_kgK!;
+  const rho = m.density_kg_m3!;
+  const constant = typeof k === "number" && typeof cp === "number" && typeof rho === "number";
+  const tables = buildPropertyTables(
+    [{ heatCapacity: (T) => evaluateProperty(rho, T - KELVIN) * evaluateProperty(cp, T - KELVIN), conductivity: (T) => evaluateProperty(k, T - KELVIN) }],
+    constant,
+  );
+  return { material: { tables, latentHeat: true } };
+}
+
+export function resolveCase(file: string, c: Case, options: PointOptions = {}): ResolvedCase {
+  const { material, steel } = resolveMaterial(c);
   let stages: Stage[];
   let line: ResolvedCase["line"];
   if ("stages" in c.cooling) {

@@ -4,9 +4,8 @@
  * profile.csv (the whole final field) atomically.
  */
 import type { Case } from "./case-schema.js";
-import { faceLaw, cachedSteel } from "./resolve-case.js";
-import { buildPropertyTables, evaluateProperty } from "../numerics/property-table.js";
-import { KELVIN, type MaterialModel } from "../model/scenario.js";
+import { faceLaw, resolveMaterial } from "./resolve-case.js";
+import { KELVIN } from "../model/scenario.js";
 import { simulateSection, domainX, type SectionScenario, type SectionResult } from "../model/section.js";
 import { ProductTracker, type NodeProduct } from "../model/product.js";
 import { ResultFolder } from "./result-folder.js";
@@ -25,25 +24,7 @@ export interface ResolvedSection {
 
 export function resolveSection(c: Case): ResolvedSection {
   if (!("stages" in c.cooling)) throw new Error("cross-sections run with cooling.stages");
-  let material: MaterialModel;
-  let steel: SteelSetup | undefined;
-  if (c.material.composition_wt_pct) {
-    steel = cachedSteel(c.material, c.product.initial_C);
-    material = steel.material;
-  } else {
-    const m = c.material;
-    const k = m.conductivity_W_mK!;
-    const cp = m.specific_heat_J_kgK!;
-    const rho = m.density_kg_m3!;
-    const constant = typeof k === "number" && typeof cp === "number" && typeof rho === "number";
-    material = {
-      tables: buildPropertyTables(
-        [{ heatCapacity: (T) => evaluateProperty(rho, T - KELVIN) * evaluateProperty(cp, T - KELVIN), conductivity: (T) => evaluateProperty(k, T - KELVIN) }],
-        constant,
-      ),
-      latentHeat: true,
-    };
-  }
+  const { material, steel } = resolveMaterial(c);
   const points = [
     ...c.output.depths_mm.map((d) => ({ x_m: 0, y_m: d / 1000, label: `T_${d}mm_C` })),
     ...(c.output.points_mm ?? []).map((p) => ({ x_m: p.x_mm / 1000, y_m: p.y_mm / 1000, label: `T_x${p.x_mm}_y${p.y_mm}mm_C` })),
