@@ -243,8 +243,14 @@ function addProductSummary(summary: Record<string, unknown>, result: SimulationR
   const final = summary.final as Record<string, unknown>;
   for (const f of PRODUCT_FIELDS) final[f] = throughThickness(result, products.map((p) => p[f]), f === "grain_um" ? DECIMALS.grain_um : DECIMALS.strength);
   final.grain_floor_nm = throughThickness(result, products.map((p) => p.grainFloor_nm), 2);
-  const mean = (f: ProductField) => (final[f] as Record<string, number | null>).mean;
-  final.product = { grain_mean_um: mean("grain_um"), yield_mean_MPa: mean("yield_MPa"), tensile_mean_MPa: mean("tensile_MPa"), hardness_mean_HV: mean("hardness_HV") };
+  // Flat per-place values for one-row-per-segment tables (coil.csv): grain_top_um … hardness_mean_HV.
+  const product: Record<string, number | null> = {};
+  for (const f of PRODUCT_FIELDS) {
+    const cut = f.lastIndexOf("_");
+    const [base, unit] = [f.slice(0, cut), f.slice(cut + 1)];
+    for (const place of ["top", "centre", "bottom", "mean"]) product[`${base}_${place}_${unit}`] = (final[f] as Record<string, number | null>)[place];
+  }
+  final.product = product;
   const reasons = new Set<string>();
   for (const p of products) for (const r of p.reasons) reasons.add(r);
   summary.product = {
