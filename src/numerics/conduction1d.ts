@@ -372,8 +372,18 @@ export class ThroughThicknessSolver {
     // Commit: fractions, then properties at the new temperatures.
     this.Tprev.set(T);
     if (evolution) evolution.accept();
-    this.evaluate(Tnew, this.fractions);
-    if (evolution) this.conserveEnthalpy(Tnew);
+    if (evolution) {
+      this.evaluate(Tnew, this.fractions);
+      this.conserveEnthalpy(Tnew);
+    } else if (linear) {
+      this.evaluate(Tnew, this.fractions);
+    } else {
+      // Without phase evolution the enthalpy the solve balanced (Elin) is the committed enthalpy:
+      // it differs from E(T_new) by ½ C'(T)·δ² with δ < tolerance (≤ 1e-9 relative here), and k, C
+      // from the last iterate (within the tolerance of T_new) serve the next step. This saves a
+      // property evaluation per step; the ledger still compares this enthalpy with the face heat.
+      this.E.set(this.Elin);
+    }
     const anyFixed = top.kind === "fixed" || bottom.kind === "fixed";
     const Eoldstep = this.scratch; // reuse: old enthalpy needed for fixed-temperature faces
     const condOldPrev = this.a; // reuse: old conduction needed for fixed-temperature faces
