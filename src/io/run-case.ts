@@ -179,6 +179,12 @@ export function simulateResolved(
   const tracker = productTracker(resolved);
   const result = simulate(resolved.scenario, sink, { onStart: tracker?.start.bind(tracker), onStep: tracker?.step.bind(tracker), onStageEnd });
   const warnings = resolved.steel ? resolved.steel.warnings.slice() : [];
+  const st = result.solver.stats;
+  if (st.unconvergedSteps > 0) {
+    warnings.push(
+      `${st.unconvergedSteps} of ${st.steps} steps did not reach the Picard tolerance even at 1/256 of the step (a jump in the kinetics, e.g. the temperature edge of a user kinetics table, can pin the temperature there); enthalpy is still conserved (energy ledger ${result.solver.ledgerError().toExponential(1)}), but extend the table or shorten the step`,
+    );
+  }
   const products = tracker ? tracker.finish(result.solver) : null;
   if (tracker) for (const w of tracker.warnings) warnings.push(describeWarning(w));
   const summary = buildSummary(c, resolved, result, warnings);
