@@ -18,6 +18,7 @@ import { writeDesignFolder } from "../src/io/design-report.js";
 import { designPlan, type DesignRequest } from "../src/io/design-plan.js";
 import { SegmentEvaluator } from "../src/io/segment-evaluator.js";
 import { SAFETY_NOTICE } from "../src/io/safety.js";
+import { runCoil } from "../src/io/coil.js";
 import { tempDirs } from "./support/temp-dirs.js";
 
 const THIN = "cases/demo-thin-cmn.json";
@@ -145,6 +146,18 @@ describe("a coil design", () => {
     const line = (designed.cooling as { line: { zones: Array<{ top?: { water?: { on: boolean } } }> } }).line;
     const on = line.zones.map((z, i) => (z.top?.water?.on ? i : -1)).filter((i) => i >= 0);
     expect(on).toEqual(o.segments[o.body].pattern.open.map((h) => o.plan.headers[h].zone));
+  });
+
+  it("writes every segment's pattern into designed.json, so running it reproduces each segment's predicted coiling temperature", async () => {
+    const file = shortCoil();
+    const o = await designCooling(file, loadCase(file), early({ flowRange: [0.5, 1.5] }), { workers: 1 });
+    const out = join(tmp(), "coil-design-run");
+    writeDesignFolder(o, out);
+    const designedFile = join(out, "designed.json");
+    const designed = loadCase(designedFile);
+    const runs = await runCoil(designedFile, designed, { workers: 1 });
+    // Same patterns, same code path per segment: identical to the written digit (3 decimals).
+    runs.forEach((r, k) => expect(r.coiling_C.mean).toBe(o.segments[k].evaluation.coiling_C.mean));
   });
 
   it("with no switches allowed gives every segment the same headers and trims each by its flow", async () => {

@@ -230,6 +230,21 @@ const speedScheduleSchema = z
   })
   .refine((s) => s.max_m_s >= s.threading_m_s, { message: "max_m_s must not be below threading_m_s (m/s)", path: ["max_m_s"] });
 
+/**
+ * Per-segment header patterns of a coil (written by `recalesce design`): for segments
+ * from_segment … to_segment (1-based, as in coil.csv) exactly the water zones listed in open_zones
+ * (0-based indices into zones) are on, and the flows of scaled_zones (default: the open ones), as
+ * written in the zones, are multiplied by flow_scale. A bank that holds an open zone is switched
+ * on for those segments.
+ */
+const patternSchema = z.strictObject({
+  from_segment: z.number().int("expected a whole segment number").refine((v) => v >= 1, "must be ≥ 1"),
+  to_segment: z.number().int("expected a whole segment number").refine((v) => v >= 1, "must be ≥ 1"),
+  open_zones: z.array(z.number().int("expected zone indices").refine((v) => v >= 0, "zone indices start at 0")),
+  flow_scale: positive("-").default(1),
+  scaled_zones: z.array(z.number().int("expected zone indices").refine((v) => v >= 0, "zone indices start at 0")).optional(),
+});
+
 export const lineSchema = z
   .strictObject({
     length_m: positive("m").refine((v) => v <= 2000, "must be ≤ 2000 m"),
@@ -254,6 +269,7 @@ export const lineSchema = z
       }),
     ),
     pyrometers_m: z.array(nonNegative("m")).default([]),
+    patterns: z.array(patternSchema).optional(),
   })
   .superRefine((l, ctx) => {
     if ((l.speed_m_s === undefined) === (l.speed === undefined)) ctx.addIssue({ code: "custom", path: ["speed_m_s"], message: "give either speed_m_s [m/s] or a speed schedule" });
@@ -282,7 +298,32 @@ export const coilSchema = z
   })
   .refine((c) => (c.entry_C === undefined) !== (c.entry_csv === undefined), { message: "give either entry_C [°C] or entry_csv (position_m,T_C)" });
 
-export const lineCoolingSchema = z.strictObject({ line: lineSchema, coil: coilSchema.optional() });
+export const lineCoolingSchema = z
+  .strictObject({ line: lineSchema, coil: coilSchema.optional() })
+  .superRefine((c, ctx) => {
+    const patterns = c.line.patterns ?? [];
+    if (patterns.length === 0) return;
+    if (!c.coil) {
+      ctx.addIssue({ code: "custom", path: ["line", "patterns"], message: "per-segment patterns need a coil" });
+      return;
+    }
+    const taken = new Set<number>();
+    patterns.forEach((p, i) => {
+      if (p.to_segment < p.from_segment) ctx.addIssue({ code: "custom", path: ["line", "patterns", i, "to_segment"], message: "must not be below from_segment" });
+      if (p.to_segment > c.coil!.segments) ctx.addIssue({ code: "custom", path: ["line", "patterns", i, "to_segment"], message: `the coil has ${c.coil!.segments} segments` });
+      for (let k = p.from_segment; k <= p.to_segment; k++) {
+        if (taken.has(k)) ctx.addIssue({ code: "custom", path: ["line", "patterns", i, "from_segment"], message: `segment ${k} already has a pattern` });
+        taken.add(k);
+      }
+      for (const [key, list] of [["open_zones", p.open_zones], ["scaled_zones", p.scaled_zones ?? []]] as const) {
+        list.forEach((z, j) => {
+          const zone = c.line.zones[z];
+          const wet = zone && [zone.top, zone.bottom].some((f) => f !== undefined && "water" in f);
+          if (!wet) ctx.addIssue({ code: "custom", path: ["line", "patterns", i, key, j], message: `zone ${z} is not a water zone of this line` });
+        });
+      }
+    });
+  });
 
 export const caseSchema = z
   .strictObject({

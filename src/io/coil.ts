@@ -30,7 +30,7 @@ export interface SegmentResult {
 
 /** Simulates one segment of a coil case. */
 export function simulateSegment(file: string, c: Case, seg: CoilSegment): SegmentResult {
-  const resolved = resolveCase(file, c, { coilPosition_m: seg.position_m, entry_C: seg.entry_C });
+  const resolved = resolveCase(file, c, { coilPosition_m: seg.position_m, entry_C: seg.entry_C, segment: seg.index });
   const { summary, readings } = simulateResolved(c, resolved, undefined, true);
   const s = summary as {
     final: { T_C: { top: number; centre: number; bottom: number; mean: number }; phases?: Record<string, number>; product?: Record<string, number | null> };

@@ -1,14 +1,15 @@
 /**
  * Writes a design's result folder (atomically) and renders its terminal table.
  *
- *   designed.json  the input case with the chosen pattern (for a coil: the body segment's), runnable
+ *   designed.json  the input case with the chosen pattern (for a coil: every segment's, as
+ *                  cooling.line.patterns, with the zones' own flags at the body segment's), runnable
  *                  by `recalesce run`;
  *   summary.json   target, tolerance, limits, headers, and per segment the pattern, predicted
  *                  coiling temperatures, error, phases and product fields, plus the caution;
  *   patterns.csv   (coils) one row per segment: the open zones and flow scale, until the case format
  *                  can hold per-segment patterns.
  */
-import { applyPattern, patternBits, patternRanges, switchesBetween, type LineLike } from "./header-pattern.js";
+import { applyPattern, patternBits, patternRanges, switchesBetween, zonePatternRuns, type LineLike } from "./header-pattern.js";
 import type { DesignOutcome } from "./design.js";
 import type { SegmentDesign } from "./design-segment.js";
 import { writeJsonFolder } from "./write-folder.js";
@@ -96,8 +97,14 @@ export function designedCase(o: DesignOutcome, outDir: string): Record<string, u
   relocateCase(raw, o.file, outDir);
   const body = o.segments[o.body];
   const cooling = raw.cooling as Record<string, unknown>;
-  cooling.line = applyPattern(rawLine<LineLike>(raw), o.plan.headers, body.pattern, new Set(o.plan.keepOff));
-  const what = `${o.plan.strategy} cooling to ${o.plan.target_C} °C${o.coil ? `, body segment ${o.body + 1}; per-segment patterns in patterns.csv` : ""}`;
+  // A coil carries every segment's pattern (runs of equal patterns), whose flow scales apply to the
+  // flows written in the zones: so the zones keep the case's flows, with the body segment's on/off
+  // flags (what a run without the coil would use).
+  const basePattern = o.coil ? { ...body.pattern, flowScale: 1 } : body.pattern;
+  const line = applyPattern(rawLine<LineLike>(raw), o.plan.headers, basePattern, new Set(o.plan.keepOff)) as LineLike & { patterns?: unknown };
+  if (o.coil) line.patterns = zonePatternRuns(o.plan.headers, o.segments.map((d) => d.pattern));
+  cooling.line = line;
+  const what = `${o.plan.strategy} cooling to ${o.plan.target_C} °C${o.coil ? `, per-segment patterns in cooling.line.patterns (also patterns.csv)` : ""}`;
   raw.title = `${String(raw.title)} (designed: ${what})`;
   return raw;
 }

@@ -142,3 +142,37 @@ export function patternRanges(headers: readonly Header[], pattern: HeaderPattern
   }
   return runs.join(", ");
 }
+
+/** A per-segment pattern as written in a case (`cooling.line.patterns[]`), by zone index. */
+export interface ZonePattern {
+  readonly open_zones: readonly number[];
+  readonly flow_scale: number;
+  readonly scaled_zones?: readonly number[];
+}
+
+/** `line` with a zone-indexed pattern applied (see applyPattern; zones are 0-based indices). */
+export function applyZonePattern<L extends LineLike>(line: L, pattern: ZonePattern): L {
+  const headers = lineHeaders(line);
+  const byZone = new Map(headers.map((h, i) => [h.zone, i]));
+  const toHeaders = (zones: readonly number[]) => zones.map((z) => byZone.get(z)).filter((i): i is number => i !== undefined).sort((a, b) => a - b);
+  const open = toHeaders(pattern.open_zones);
+  return applyPattern(line, headers, { open, scaled: pattern.scaled_zones ? toHeaders(pattern.scaled_zones) : open, flowScale: pattern.flow_scale });
+}
+
+/**
+ * Runs of consecutive segments with the same pattern, as `cooling.line.patterns` entries
+ * (segments 1-based, zones 0-based): what a designed coil case carries.
+ */
+export function zonePatternRuns(headers: readonly Header[], perSegment: readonly HeaderPattern[]): Array<{ from_segment: number; to_segment: number; open_zones: number[]; flow_scale: number; scaled_zones: number[] }> {
+  const key = (p: HeaderPattern) => JSON.stringify([p.open, p.scaled, p.flowScale]);
+  const runs: Array<{ from_segment: number; to_segment: number; open_zones: number[]; flow_scale: number; scaled_zones: number[] }> = [];
+  perSegment.forEach((p, k) => {
+    const last = runs[runs.length - 1];
+    if (last && k > 0 && key(perSegment[k - 1]) === key(p)) {
+      last.to_segment = k + 1;
+      return;
+    }
+    runs.push({ from_segment: k + 1, to_segment: k + 1, open_zones: p.open.map((i) => headers[i].zone), flow_scale: p.flowScale, scaled_zones: p.scaled.map((i) => headers[i].zone) });
+  });
+  return runs;
+}

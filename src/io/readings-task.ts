@@ -16,7 +16,7 @@ export interface ReadingsTask {
 }
 
 export function runReadings(task: ReadingsTask): number[] {
-  const options = task.segment ? { coilPosition_m: task.segment.position_m, entry_C: task.segment.entry_C } : {};
+  const options = task.segment ? { coilPosition_m: task.segment.position_m, entry_C: task.segment.entry_C, segment: task.segment.index } : {};
   const resolved = resolveCase(task.file, task.caseData, options);
   return simulateResolved(task.caseData, resolved, undefined, true).readings.pyrometers_C;
 }

@@ -12,6 +12,7 @@ import { resolveSteel, type SteelSetup } from "../model/steel.js";
 import { DEFAULT_IMPINGEMENT_m, trackPoint, type LineSpec, type TrackedPoint, type ZoneFace } from "../model/line.js";
 import { SpeedProfile, constantSpeed, type SpeedSchedule } from "../model/speed.js";
 import type { WaterCurveParams } from "../physics/water-cooling.js";
+import { applyZonePattern, type LineLike } from "./header-pattern.js";
 import { readTextFile } from "./load-case.js";
 import { parse as parseCsv } from "csv-parse/sync";
 import { dirname, resolve as resolvePath } from "node:path";
@@ -172,6 +173,13 @@ export function readEntryProfile(caseFile: string, csvPath: string): Array<[numb
   return out;
 }
 
+/** The line as a segment sees it: with its `patterns` entry applied, when it has one. */
+export function lineForSegment(l: LineInput, segment: number | undefined): LineInput {
+  if (segment === undefined || !l.patterns) return l;
+  const p = l.patterns.find((q) => segment + 1 >= q.from_segment && segment + 1 <= q.to_segment);
+  return p ? applyZonePattern(l as LineInput & LineLike, p) : l;
+}
+
 /** One tracked segment of a coil. */
 export interface CoilSegment {
   readonly index: number;
@@ -193,6 +201,8 @@ export function coilSegments(file: string, coil: CoilInput): CoilSegment[] {
 export interface PointOptions {
   /** Distance of the tracked point from the head of the coil [m] (line cases). */
   readonly coilPosition_m?: number;
+  /** Coil segment (0-based) of the tracked point, which selects its header pattern. */
+  readonly segment?: number;
   /** Entry temperature override [°C] (coil segments). */
   readonly entry_C?: number;
 }
@@ -230,7 +240,7 @@ export function resolveCase(file: string, c: Case, options: PointOptions = {}): 
       label: s.label ?? `stage ${i + 1}`,
     }));
   } else {
-    const l = c.cooling.line;
+    const l = lineForSegment(c.cooling.line, options.segment);
     const spec = lineSpec(l);
     const coilLength = c.cooling.coil?.length_m ?? 0;
     const profile = new SpeedProfile(speedSchedule(l), l.length_m, coilLength);

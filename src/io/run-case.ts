@@ -439,7 +439,7 @@ export async function runCase(file: string, outDir: string, options: RunOptions 
   if (!("line" in c.cooling) || !c.cooling.coil) return runCaseFile(file, outDir, options.force);
   const segments = coilSegments(file, c.cooling.coil);
   const body = segments[Math.floor((segments.length - 1) / 2)];
-  const resolved = resolveCase(file, c, { coilPosition_m: body.position_m, entry_C: body.entry_C });
+  const resolved = resolveCase(file, c, { coilPosition_m: body.position_m, entry_C: body.entry_C, segment: body.index });
   guardWork(file, c, resolved, segments.length + 1, options.force ?? false);
   const rows = await runCoil(file, c, { workers: options.workers, onProgress: options.onProgress });
   const folder = new ResultFolder(outDir);

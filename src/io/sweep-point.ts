@@ -61,7 +61,7 @@ export function runSweepPoint(task: SweepPointTask): string[] {
   if ("line" in c.cooling && c.cooling.coil) {
     const segments = coilSegments(task.file, c.cooling.coil);
     const body = segments[Math.floor((segments.length - 1) / 2)];
-    options = { coilPosition_m: body.position_m, entry_C: body.entry_C };
+    options = { coilPosition_m: body.position_m, entry_C: body.entry_C, segment: body.index };
   }
   try {
     const resolved = resolveCase(task.file, c, options);
