@@ -69,6 +69,14 @@ describe("a cross-section case", () => {
     // Constant properties: the ledger closes to round-off (conduction2d.test.ts measures ≤ 2e-15).
     expect(s.energy.relative_error).toBeLessThan(1e-9);
     expect(s.energy.heat_out_J_m!.edge).toBeGreaterThan(0);
+    // The section's extremes equal the extremes of the whole field written to profile.csv (read
+    // back independently), and bound the named places.
+    const rows = readFileSync(join(dir, "cooled-edge", "profile.csv"), "utf8").trim().split("\n").slice(1);
+    const temps = rows.map((r) => Number(r.split(",")[2]));
+    expect(s.final.T_C.max).toBe(Math.max(...temps));
+    expect(s.final.T_C.min).toBe(Math.min(...temps));
+    expect(s.final.T_C.min).toBeLessThanOrEqual(s.final.T_C.corner);
+    expect(s.final.T_C.max).toBeGreaterThanOrEqual(s.final.T_C.centre);
   });
 
   it("gives the same field with a symmetry plane as with the full width", async () => {

@@ -12,6 +12,7 @@ import { ResultFolder } from "./result-folder.js";
 import { DECIMALS, decimalsForColumn, fixed, round, significant } from "./format.js";
 import { SAFETY_NOTICE } from "./safety.js";
 import { PHASES } from "../physics/phases.js";
+import ops from "ndarray-ops";
 import { describeWarning } from "../physics/composition.js";
 import type { SteelSetup } from "../model/steel.js";
 
@@ -125,6 +126,9 @@ function sectionSummary(c: Case, s: SectionScenario, r: SectionResult, products:
   const T: Record<string, number> = {};
   for (const [name, [x, y]] of Object.entries(where)) T[name] = round(solver.temperatureAt_K(domainX(s, x), y) - KELVIN, DECIMALS.T_C);
   T.mean = round(solver.meanTemperature_K() - KELVIN, DECIMALS.T_C);
+  // Hottest and coldest node of the section (ndarray-ops over the field view; not a hot loop).
+  T.max = round(ops.sup(solver.field) - KELVIN, DECIMALS.T_C);
+  T.min = round(ops.inf(solver.field) - KELVIN, DECIMALS.T_C);
   const final: Record<string, unknown> = { T_C: T };
   if (solver.fractions.length > 1) {
     const phases: Record<string, number> = {};
