@@ -37,7 +37,7 @@
  * The solver allocates only in its constructor; `step` is allocation-free.
  */
 import { solveTridiagonal } from "./tridiagonal.js";
-import { evaluateMixture, secantHeatCapacity } from "./mixture-properties.js";
+import { evaluateMixture, secantHeatCapacity, SOLVER_DEFAULTS } from "./mixture-properties.js";
 import { ConvectionRadiation, type FaceLaw } from "./face-law.js";
 import type { PropertyTables } from "./property-table.js";
 
@@ -145,9 +145,9 @@ export class ThroughThicknessSolver {
     this.tables = o.tables;
     this.evolution = o.evolution;
     this.latentHeat = o.latentHeat ?? true;
-    this.tolerance_K = o.tolerance_K ?? 1e-3;
-    this.maxIterations = o.maxIterations ?? 60;
-    this.explicitSafety = o.explicitSafety ?? 0.9;
+    this.tolerance_K = o.tolerance_K ?? SOLVER_DEFAULTS.tolerance_K;
+    this.maxIterations = o.maxIterations ?? SOLVER_DEFAULTS.maxIterations;
+    this.explicitSafety = o.explicitSafety ?? SOLVER_DEFAULTS.explicitSafety;
     const n = this.nodes;
     const f = () => new Float64Array(n);
     this.width = f();

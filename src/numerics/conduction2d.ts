@@ -69,7 +69,7 @@ import { solveTridiagonal } from "./tridiagonal.js";
 import { ConvectionRadiation, type FaceLaw } from "./face-law.js";
 import type { PropertyTables } from "./property-table.js";
 import type { PhaseEvolution, SolverStatistics } from "./conduction1d.js";
-import { evaluateMixture, secantHeatCapacity } from "./mixture-properties.js";
+import { evaluateMixture, secantHeatCapacity, SOLVER_DEFAULTS } from "./mixture-properties.js";
 
 export type CrossSectionScheme = "explicit" | "adi";
 export type AdiSplitting = "peaceman-rachford" | "douglas-rachford";
@@ -251,9 +251,9 @@ export class CrossSectionSolver {
     this.tables = o.tables;
     this.evolution = o.evolution;
     this.latentHeat = o.latentHeat ?? true;
-    this.tolerance_K = o.tolerance_K ?? 1e-3;
-    this.maxIterations = o.maxIterations ?? 60;
-    this.explicitSafety = o.explicitSafety ?? 0.9;
+    this.tolerance_K = o.tolerance_K ?? SOLVER_DEFAULTS.tolerance_K;
+    this.maxIterations = o.maxIterations ?? SOLVER_DEFAULTS.maxIterations;
+    this.explicitSafety = o.explicitSafety ?? SOLVER_DEFAULTS.explicitSafety;
     if (!(this.explicitSafety > 0)) throw new RangeError("explicitSafety must be positive");
 
     const field = () => new Float64Array(n);

@@ -16,6 +16,16 @@
  */
 import type { PropertyTables } from "./property-table.js";
 
+/** Iteration and stability defaults shared by the 1-D and 2-D solvers. */
+export const SOLVER_DEFAULTS = {
+  /** Picard stop: largest temperature change between iterates [K] */
+  tolerance_K: 1e-3,
+  /** Iteration cap per step before the step is halved */
+  maxIterations: 60,
+  /** Fraction of the explicit stability limit used for sub-steps */
+  explicitSafety: 0.9,
+} as const;
+
 export function evaluateMixture(
   tables: PropertyTables,
   latentHeat: boolean,
