@@ -7,11 +7,22 @@
  * Exit codes: 0 ok, 1 internal failure or write failure, 2 bad input, 3 target unreachable
  * (design), and `check` uses 1 for a regression.
  */
+import { readFileSync } from "node:fs";
 import { Command, CommanderError } from "commander";
 import { abortAllResultFolders, WriteError } from "../io/result-folder.js";
 import { InputError } from "../io/errors.js";
 import { registerCommands } from "./commands.js";
 import { stopActiveRun } from "./run-in-worker.js";
+
+/** The version in package.json (read at start; the CLI ships with it). */
+function packageVersion(): string {
+  try {
+    const pkg = JSON.parse(readFileSync(new URL("../../package.json", import.meta.url), "utf8")) as { version?: string };
+    return pkg.version ?? "unknown";
+  } catch {
+    return "unknown";
+  }
+}
 
 export class ExitError extends Error {
   constructor(readonly code: number, message: string) {
@@ -32,6 +43,7 @@ export async function main(argv: string[]): Promise<number> {
   program
     .name("recalesce")
     .description("Through-thickness cooling of transforming hot-rolled steel: conduction, kinetics, latent heat, run-out table.")
+    .version(packageVersion(), "-V, --version", "print the version")
     .exitOverride()
     .configureOutput({ writeErr: (s) => process.stderr.write(s), writeOut: (s) => process.stdout.write(s) })
     .showHelpAfterError(false);
