@@ -198,6 +198,18 @@ export function coilSegments(file: string, coil: CoilInput): CoilSegment[] {
   return segs;
 }
 
+/** A warning when coil segments lie beyond the entry-temperature CSV (held at its end values). */
+export function entryProfileWarning(file: string, coil: CoilInput): string | null {
+  if (!coil.entry_csv) return null;
+  const profile = readEntryProfile(file, coil.entry_csv);
+  const first = (0.5 * coil.length_m) / coil.segments;
+  const last = ((coil.segments - 0.5) * coil.length_m) / coil.segments;
+  const lo = profile[0][0];
+  const hi = profile[profile.length - 1][0];
+  if (first >= lo && last <= hi) return null;
+  return `coil.entry_csv covers ${lo}–${hi} m of the coil but segments lie at ${first.toFixed(1)}–${last.toFixed(1)} m; beyond the file the nearest end temperature is used`;
+}
+
 export interface PointOptions {
   /** Distance of the tracked point from the head of the coil [m] (line cases). */
   readonly coilPosition_m?: number;

@@ -2,7 +2,7 @@
  * `recalesce run`: load, validate, simulate, write the result folder atomically.
  */
 import { loadCase } from "./load-case.js";
-import { coilSegments, resolveCase, type ResolvedCase } from "./resolve-case.js";
+import { coilSegments, entryProfileWarning, resolveCase, type ResolvedCase } from "./resolve-case.js";
 import { runCoil, type SegmentResult } from "./coil.js";
 import { resolveSection, runSectionCase, sectionCellSteps } from "./run-section.js";
 import { simulate, type SimulationResult } from "../model/simulate.js";
@@ -448,6 +448,8 @@ export async function runCase(file: string, outDir: string, options: RunOptions 
     const { result, summary, warnings, products } = simulateResolved(c, resolved, (t) => history.write(t));
     history.close();
     summary.coil = coilSummary(rows);
+    const entryWarning = entryProfileWarning(file, c.cooling.coil);
+    if (entryWarning) warnings.push(entryWarning); // the same array as summary.warnings
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
     folder.writeFile("profile.csv", profileCsv(result, products));
     folder.writeFile("coil.csv", coilCsv(rows, resolved.line!.spec.pyrometers_m));
