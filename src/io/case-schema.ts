@@ -252,7 +252,8 @@ export const lineSchema = z
     speed: speedScheduleSchema.optional(),
     water_C: celsius.refine((v) => v > 0 && v < 100, "must be liquid water, 0–100 °C"),
     air_C: celsius,
-    strip_width_mm: positive("mm").default(1500),
+    strip_width_mm: positive("mm").default(1500), // a typical hot-strip width, common practice (no source)
+    // Oxidised hot strip ε ≈ 0.7–0.9, 0.8 the usual default (common practice, physics.md §6).
     emissivity: num("-").refine((v) => v > 0 && v <= 1, "must lie in (0, 1]").default(0.8),
     air_convection: z.enum(["natural", "moving-sheet", "none"], { error: 'expected "natural", "moving-sheet" or "none"' }).default("natural"),
     htc_multiplier: positive("-").default(1),

@@ -19,7 +19,8 @@
  * hardness.ts). Tensile strength is fraction-weighted over the transformed products. Yield
  * strength is reported only while bainite + martensite ≤ 10 % (Pickering's yield equation is for
  * ferrite–pearlite and there is no yield model for the hard products here); otherwise null.
- * Free nitrogen = N − N bound as AlN and TiN by stoichiometry (common practice (no source)).
+ * Free nitrogen = N − N bound as AlN and TiN by stoichiometry (common practice (no source)), with
+ * the IUPAC standard atomic weights N 14.007, Al 26.98, Ti 47.87.
  */
 import { FERRITE, PEARLITE, BAINITE, MARTENSITE, AUSTENITE, PHASE_COUNT } from "../physics/phases.js";
 import { carbonEquivalentHG, hodgsonGibbsFerriteGrain_um, transformationCoolingRate_K_s } from "../physics/ferrite-grain.js";

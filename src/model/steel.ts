@@ -19,7 +19,7 @@ import { KELVIN, type MaterialModel, type Scenario } from "./scenario.js";
 import { historyColumns, type SimulationResult } from "./simulate.js";
 import { DEFAULT_BOUNDARY_ENERGY_J_m2 } from "../physics/grain-floor.js";
 
-/** Default steel density [kg/m³] (EN 1993-1-2 design value). */
+/** Default steel density [kg/m³] (EN 1993-1-2:2005 design value, physics.md §3 [pub]). */
 export const STEEL_DENSITY_kg_m3 = 7850;
 
 interface CurveInput {

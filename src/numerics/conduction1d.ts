@@ -2,7 +2,8 @@
  * One-dimensional transient conduction through the thickness of a plate, with temperature- and
  * phase-dependent properties and latent heat, in enthalpy form.
  *
- * Discretisation (node-based finite volumes, as in Incropera & DeWitt §5.10): N cells of width
+ * Discretisation (node-based finite volumes, as in Incropera & DeWitt, Fundamentals of Heat and
+ * Mass Transfer, §5.10 — section number from memory, edition not recorded): N cells of width
  * Δx = L/N, nodes x_i = iΔx (i = 0 … N) with node 0 on the top face (depth 0) and node N on the
  * bottom face. Interior nodes own a control volume of width w_i = Δx, the two face nodes a half
  * volume w_0 = w_N = Δx/2, so the face nodes ARE the surface temperatures. Energy balance of node i
@@ -23,13 +24,14 @@
  * Nonlinearity (Picard/Newton on the enthalpy): E, k, q and the phase fractions X^{n+1} are
  * evaluated at an iterate T*, the enthalpy and face fluxes linearised,
  *   E(T) ≈ E(T*) + C(T*)(T − T*),  q(T) ≈ q(T*) + q'(T*)(T − T*),
- * the tridiagonal system solved by the Thomas algorithm, and repeated until
+ * the tridiagonal system solved by the Thomas algorithm (tridiagonal.ts), and repeated until
  * max_i |T_i − T*_i| < tolerance. The first iterate extrapolates the last step's change. With phase
  * evolution the Jacobian uses the secant slope of E(T, X(T)) over the last two iterates. A step
  * that does not converge within the iteration cap is retried as two half steps (to 1/256), and
  * only then counted as unconverged.
  *
- * Explicit stability (Incropera Table 5.2 method: every old-temperature coefficient ≥ 0): node i
+ * Explicit stability (Incropera Table 5.2 method, physics.md §8 [pub]: every old-temperature
+ * coefficient ≥ 0): node i
  * needs Δt ≤ w_i C_i / (G_{i−½} + G_{i+½} + q'_i), i.e. Fo ≤ ½ inside and Fo(1 + Bi_Δ) ≤ ½ at a
  * face, radiation included through q' = h + 4εσT³. A requested step above the limit is split into
  * equal sub-steps at `explicitSafety` × the limit, and the sub-steps are counted.

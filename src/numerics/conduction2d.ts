@@ -3,7 +3,8 @@
  * width, per unit length along the rolling direction), with temperature- and phase-dependent
  * properties and latent heat in enthalpy form, for edge effects and thick sections.
  *
- * Grid (node-based finite volumes, Incropera & DeWitt §5.10 extended to 2-D): y through the
+ * Grid (node-based finite volumes, Incropera & DeWitt §5.10 extended to 2-D — section number from
+ * memory): y through the
  * thickness H, nodes y_j = jΔy (j = 0 … N_y, j = 0 the top face); x across the modelled width X,
  * nodes x_i = iΔx (i = 0 … N_x). X = W for the full width (x = 0 and x = W are the two edges), or
  * X = W/2 with `symmetric` (x = 0 is the mid-width plane, insulated by symmetry; x = W/2 the

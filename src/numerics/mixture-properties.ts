@@ -3,7 +3,8 @@
  *
  *   E_i = Σ_p X_p,i E_p(T_i)   volumetric enthalpy [J/m³]
  *   C_i = Σ_p X_p,i C_p(T_i)   volumetric heat capacity [J/(m³·K)]
- *   k_i = Σ_p X_p,i k_p(T_i)   conductivity [W/(m·K)] (fraction-weighted arithmetic mean, physics.md §3)
+ *   k_i = Σ_p X_p,i k_p(T_i)   conductivity [W/(m·K)] (fraction-weighted arithmetic mean; adequate
+ *                              given the ±5–10 % scatter of the data: physics.md §3, from memory)
  *
  * Each table is interpolated linearly between its grid points; beyond the grid E is extrapolated
  * with the end heat capacity and C, k are held (property-table.ts). With `latentHeat` false the

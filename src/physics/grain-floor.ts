@@ -3,7 +3,8 @@
  * pay for with its chemical driving force.
  *
  * A grain structure of mean linear intercept L̄ carries boundary area S_V = 2/L̄ per unit volume
- * (stereology, S_V = 2 P_L), hence stores σ S_V = 2σ/L̄ [J/m³]. A transformation releasing at most
+ * (stereology, S_V = 2 P_L; Smith & Guttman 1953, from memory), hence stores σ S_V = 2σ/L̄ [J/m³].
+ * A transformation releasing at most
  * |ΔG_m|/V_m [J/m³] can therefore not make grains finer than
  *
  *   L̄_min = 2 σ V_m / |ΔG_m|    [m]

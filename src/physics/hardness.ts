@@ -4,9 +4,12 @@
  *
  * Source: P. Maynier, B. Jungmann & J. Dollet, "Creusot-Loire system for the prediction of the
  * mechanical properties of low alloy steel products", in Hardenability Concepts with Applications
- * to Steel, D.V. Doane & J.S. Kirkaldy (eds.), AIME (1978). Coefficients [pub: the equations are
- * reproduced identically in several independent public sources, e.g. Scand. J. Metall. 33 (2004)
- * 98]; composition in wt%, V_r = cooling rate at 700 °C in °C/h, log = log10:
+ * to Steel, D.V. Doane & J.S. Kirkaldy (eds.), AIME (1978). Coefficients: stated by this module's
+ * author to be reproduced identically in several independent public sources (the example given,
+ * Scand. J. Metall. 33 (2004) 98, is cited from memory and was not re-checked in the audit).
+ * physics.md does not list these equations, so their [pub] status rests on this note alone until
+ * they are added there with check values. Composition in wt%, V_r = cooling rate at 700 °C in
+ * °C/h, log = log10:
  *
  *   HV_M  = 127 + 949C + 27Si + 11Mn + 8Ni + 16Cr + 21 log V_r
  *   HV_B  = −323 + 185C + 330Si + 153Mn + 65Ni + 144Cr + 191Mo
@@ -14,7 +17,7 @@
  *   HV_FP = 42 + 223C + 53Si + 30Mn + 12.6Ni + 7Cr + 19Mo + (10 − 19Si + 4Ni + 8Cr + 130V) log V_r
  *   HV    = X_M HV_M + X_B HV_B + (X_F + X_P) HV_FP
  *
- * Confidence: coefficients confirmed in independent copies; the validity range below is from
+ * Confidence: coefficients as above (not in physics.md); the validity range below is from
  * memory (C 0.1–0.5, Si ≤ 1, Mn ≤ 2, Ni ≤ 4, Cr ≤ 3, Mo ≤ 1, V ≤ 0.2, Mn + Ni + Cr + Mo ≤ 5 wt%).
  * Lean strip grades (C < 0.1) lie outside it and get a warning.
  */

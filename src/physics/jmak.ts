@@ -1,6 +1,8 @@
 /**
  * User-supplied transformation kinetics: JMAK (Johnson–Mehl–Avrami–Kolmogorov) curves fitted to
  * isothermal start and finish times read off a TTT diagram, made non-isothermal by additivity.
+ * The isothermal law is the classical one of Kolmogorov (1937), Johnson & Mehl (1939) and Avrami
+ * (1939–1941) [years from memory].
  *
  * Isothermal:  Y(t) = 1 − exp(−k tⁿ)   [−], t [s], k [s⁻ⁿ]
  * From start/finish times t_s, t_f at normalised fractions Y_s, Y_f (physics.md §5.3):
@@ -8,7 +10,7 @@
  * Non-isothermal growth by the equivalent ("fictitious") time method of Hawbolt, Chau &
  * Brimacombe, Metall. Trans. A 14A (1983) 1803 [volume/page from memory]:
  *   t* = [−ln(1 − Y)/k(T)]^(1/n),   Y ← 1 − exp(−k(T)(t* + Δt)ⁿ)
- * Incubation by Scheil's sum Σ Δt/t_s(T) = 1 (Scheil 1935).
+ * Incubation by Scheil's sum Σ Δt/t_s(T) = 1 (Scheil 1935; physics.md §5.3).
  *
  * Temperature interpolation: n and ln k are interpolated linearly in T between table rows (ln k
  * because k spans decades; n because it is the Avrami exponent, roughly constant). t_s between rows

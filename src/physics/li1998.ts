@@ -1,7 +1,7 @@
 /**
  * Austenite-decomposition kinetics of Li, Niebuhr, Meekisho & Atteridge, "A computational model
  * for the prediction of steel hardenability", Metall. Mater. Trans. B 29B (1998) 661 — a rework of
- * Kirkaldy & Venugopalan (1983).
+ * Kirkaldy & Venugopalan (1983; physics.md §5.2 tags that model [mem], and nothing of it is used here).
  *
  * Isothermal time to reach a fraction X of a product (physics.md §5.1):
  *

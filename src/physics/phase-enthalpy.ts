@@ -30,7 +30,8 @@ export interface PhaseThermoOptions {
 
 /**
  * Default stored-energy fraction of bainite [–]. Assumption, from memory: the stored energy of
- * bainite is about 400 J/mol (Bhadeshia, Bainite in Steels), against h_γ − h_α ≈ 6600 J/mol at
+ * bainite is about 400 J/mol (H.K.D.H. Bhadeshia, Bainite in Steels, 2nd ed. 2001 — value, edition
+ * and year from memory), against h_γ − h_α ≈ 6600 J/mol at
  * 800 K, i.e. about 6 %; rounded to 0.05. No confirmed published latent heat exists.
  */
 export const DEFAULT_BAINITE_STORED_FRACTION = 0.05;
@@ -127,7 +128,10 @@ export function phaseSpecificHeat_J_kgK(phase: number, T_K: number, opts?: Phase
   return cGamma - (1 - s) * (cGamma - cAlpha);
 }
 
-/** Austenite conductivity, EN 1993-1-2:2005 §3.4.1.3 plateau for 800–1200 °C [W/(m·K)]. */
+/**
+ * Austenite conductivity, EN 1993-1-2:2005 §3.4.1.3 plateau for 800–1200 °C [W/(m·K)]; austenite
+ * ≈ 26–30 and nearly carbon-independent above 850 °C (BISRA 1953 compilation, from memory).
+ */
 export const AUSTENITE_CONDUCTIVITY_W_mK = 27.3;
 
 /** Carbon content of ferrite assigned for conductivity [wt%] (Fe–C diagram, ≈ 0.02 %C). */
@@ -138,7 +142,8 @@ export const PEARLITE_CARBON_wt = 0.77;
 /**
  * Room-temperature (20 °C) conductivity of a plain-carbon ferrite–pearlite steel [W/(m·K)]:
  *   k₂₀(C) = 65.76 − 22.80·C     (C in wt%)
- * Least-squares line through the Heat and Mass Transfer Data Book values at 20 °C: AISI 1010
+ * Least-squares line through the Heat and Mass Transfer Data Book values at 20 °C (physics.md §3
+ * [pub]; author, edition and year are not recorded there — to be completed): AISI 1010
  * (≈ 0.10 %C, nominal — common practice (no source)) 63.9, 0.5 %C 53.6, 1.0 %C 43.3; residuals
  * ≤ 1.5 %. Valid for plain C steels (Mn ≤ 1 %, Si ≤ 0.1 %), 0.02–1.0 %C; Mn and Si lower k
  * further and are not represented.

@@ -11,8 +11,8 @@
  * Non-magnetic part, G = a + bT + cT lnT + dT² + eT³ + f/T  [J/mol], so that
  *   H = a − cT − dT² − 2eT³ + 2f/T,   c_p = −c − 2dT − 6eT² − 2f/T².
  *
- * Magnetic part (Inden 1976 as simplified by Hillert & Jarl, CALPHAD 2 (1978) 227 [citation from
- * memory]; the form SGTE uses), τ = T/T*:
+ * Magnetic part (Inden 1976 as simplified by Hillert & Jarl, CALPHAD 2 (1978) 227 [both citations
+ * from memory]; the form SGTE uses, as given by Dinsdale 1991), τ = T/T*:
  *   G_mag = R T ln(β + 1) g(τ)
  *   A = 518/1125 + (11692/15975)(1/p − 1)      (11692, not the 11592 misprint circulating in code)
  *   τ < 1: g = 1 − [79/(140 p τ) + K(τ³/6 + τ⁹/135 + τ¹⁵/600)]/A,   K = (474/497)(1/p − 1)

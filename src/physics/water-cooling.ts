@@ -16,7 +16,8 @@
  *   T_s > T_D        film boiling              q = h_fb (T_s − T_w)
  * with q_B = h_sp (T_B − T_w) and q_D = h_fb (T_D − T_w), so q and dq/dT_s are continuous
  * everywhere (C¹). The nucleate segment is monotone when h_sp (T_C − T_B) ≤ 3 (q_C − q_B)
- * (Fritsch & Carlson, SIAM J. Numer. Anal. 17 (1980) 238), which is enforced; its maximum is then
+ * (Fritsch & Carlson, SIAM J. Numer. Anal. 17 (1980) 238 — citation from memory; the condition is
+ * α = h_sp(T_C − T_B)/(q_C − q_B) ≤ 3 with β = 0), which is enforced; its maximum is then
  * q_C at T_C. The transition segment ends with the film-boiling slope, so the minimum heat flux
  * (Leidenfrost point) lies slightly below T_D and stays above q_D − (4/27)(T_D − T_C) h_fb > 0.
  *
@@ -167,7 +168,7 @@ export const DEFAULT_WATER_CURVE: Readonly<Record<WaterRegion, WaterCurveParams>
     nucleateOnset_K: NUCLEATE_ONSET_K, // 110 °C [from memory]
     criticalHeatFlux_W_m2: 4e6, // [from memory]; must exceed the film flux up to 1000 °C (2.9 MW/m² here)
     criticalHeatFlux_K: 573.15, // 300 °C [from memory]
-    rewetting_K: 873.15, // 600 °C; spray Leidenfrost temperatures range 150 to > 1000 °C (Hnizdil et al., Metals 2020)
+    rewetting_K: 873.15, // 600 °C [from memory]; spray Leidenfrost temperatures range 150 to > 1000 °C (Hnizdil et al., Metals 2020 — citation from memory, not checked)
     filmBoilingHtc_W_m2K: shimadaMitsutsukaHtc_W_m2K(5, REFERENCE_WATER_K), // 2.95 kW/(m²·K), Shimada–Mitsutsuka at W_ref, 30 °C
     waterFluxMin_L_m2s: 1, // [from memory]
     waterFluxMax_L_m2s: 20, // [from memory]
