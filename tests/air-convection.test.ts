@@ -119,6 +119,7 @@ describe("natural convection reproduces Incropera & DeWitt's worked examples", (
   it("switches between the two upward laws where they are equal, so h has no step", () => {
     // 0.54 Ra^¼ = 0.15 Ra^⅓ at Ra* = (0.54/0.15)^12 (algebra); checked on the formulas themselves.
     const Ra = MCADAMS_UPWARD_SWITCH_RA;
+    // Both sides ≈ 25: round-off of two powers, far below 5e-10.
     expect(0.54 * Ra ** 0.25 - 0.15 * Ra ** (1 / 3)).toBeCloseTo(0, 9);
     expect(Ra).toBeGreaterThan(4.7e6);
     expect(Ra).toBeLessThan(4.8e6);
@@ -127,6 +128,7 @@ describe("natural convection reproduces Incropera & DeWitt's worked examples", (
   it("treats a face colder than the air as the opposite orientation (stable vs unstable layer)", () => {
     // Incropera & DeWitt §9.6.2: the upper surface of a cold plate behaves as the lower surface of
     // a hot plate. Same |ΔT| and film temperature (T_f = 300 K either way): identical h.
+    // Same Ra, same law, same film properties: identical arithmetic, round-off only (12 decimals).
     expect(horizontalPlateHtc_W_m2K(290, 310, 0.5, "up")).toBeCloseTo(horizontalPlateHtc_W_m2K(310, 290, 0.5, "down"), 12);
     expect(horizontalPlateHtc_W_m2K(310, 290, 0.5, "up")).toBeGreaterThan(horizontalPlateHtc_W_m2K(310, 290, 0.5, "down"));
   });

@@ -107,8 +107,8 @@ describe("explicit scheme asked for 20 times its stable step", () => {
   it("reports more sub-steps than requested steps in its statistics", () => {
     // 21 requested steps of 23 sub-steps each at Bi = 1: stats.steps should count the 21 calls
     // and stats.substeps the 483 sub-steps, as the run summary prints "N steps (M sub-steps)".
-    // FAILS (solver bug, kept on purpose): `singleStep` increments stats.steps once per
-    // sub-step, so steps = substeps = 483 and the summary can never show the sub-stepping.
+    // Regression guard: `singleStep` once incremented stats.steps once per sub-step (steps =
+    // substeps = 483); fixed in commit 71bef94, which counts requested steps in step().
     const law = cases[0][1];
     const { dt, steps } = plan(law);
     const solver = newSolver();

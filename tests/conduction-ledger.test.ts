@@ -43,11 +43,12 @@ function closure(solver: ThroughThicknessSolver): number {
   return Math.abs(dH + Q) / Math.abs(Q);
 }
 
-// The first case FAILS for implicit and Crank–Nicolson (closure 7.5e-6 and 1.1e-5): a solver bug,
-// kept failing on purpose. With constant tables `singleStep` treats the step as linear and stops
-// after one pass, although a radiating face is not linear: the balance is solved with the flux
-// linearised about the first iterate, q(T*) + q'(T*)(T − T*), while the ledger books q(T^{n+1}).
-// The same faces close to round-off once the step is iterated (last test in this file).
+// The first case is a regression guard. It once failed for implicit and Crank–Nicolson (closure
+// 7.5e-6 and 1.1e-5): with constant tables `singleStep` treated the step as linear and stopped
+// after one pass, although a radiating face is not linear, so the balance was solved with the flux
+// linearised about the first iterate, q(T*) + q'(T*)(T − T*), while the ledger booked q(T^{n+1}).
+// Commit 71bef94 iterates whenever a face law is nonlinear (isLinearFace in conduction1d.ts); the
+// same faces with temperature-dependent properties are checked in the last test of this file.
 const cases: ReadonlyArray<readonly [string, FaceLaw, FaceLaw]> = [
   [
     "convection and radiation on both faces",

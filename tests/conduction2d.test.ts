@@ -48,7 +48,8 @@ function allFaces(law: FaceLaw): CrossSectionFaces {
 
 /**
  * Product solution for a long rectangular bar 2a × 2b, initially T_i, every face convecting to T∞
- * with h, Bi_x = ha/k, Bi_y = hb/k (Incropera & DeWitt §5.8, multidimensional effects; Carslaw & Jaeger 1959 §3.11 for the
+ * with h, Bi_x = ha/k, Bi_y = hb/k (Incropera & DeWitt §5.8, multidimensional effects — section number
+ * from memory, edition not recorded; Carslaw & Jaeger 1959 §3.11 for the
  * slab factors): θ* = θ*_slab(Bi_x, Fo_x, x/a) · θ*_slab(Bi_y, Fo_y, y/b), x and y from the axis.
  * Returns the exact temperatures [K] on the solver's nodes, x measured as the solver does.
  */

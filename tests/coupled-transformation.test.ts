@@ -265,8 +265,10 @@ describe("continuous cooling through the solver", () => {
       cells: 10,
       dt_s: 0.002,
     });
-    // The steel uses Andrews' Ms (physics.md §4 table: 328.8 °C).
-    expect(steel.critical.Ms_C).toBeCloseTo(MS_CRMO_C, 9);
+    // The steel uses Andrews' Ms (physics.md §4 table: 328.8 °C, printed to 0.1 °C: half a unit
+    // plus 1 %), and the formula written out above reproduces that table value.
+    expect(Math.abs(MS_CRMO_C - 328.8)).toBeLessThanOrEqual(0.05 * 1.01);
+    expect(steel.critical.Ms_C).toBeCloseTo(MS_CRMO_C, 9); // same formula: round-off only
     const result = simulate(scenario);
     const s = result.solver;
     const martensite = meanFraction(s, MARTENSITE);
@@ -276,9 +278,9 @@ describe("continuous cooling through the solver", () => {
     expect(martensite / (martensite + diffusional)).toBeGreaterThan(0.99);
     // Koistinen & Marburger (1959): f = 1 − exp(−0.011 (Ms − T)). At 20 °C this leaves ≈ 3.4 %
     // retained austenite, so a mass average above 0.99 is impossible at room temperature; the
-    // amount must equal the closed form at the final temperature. Tolerance 1e-4: the piece ends
-    // within 1e-3 K of 20 °C (≈ 1e-5 in f) and the rate form integrated exactly per step agrees
-    // with the closed form on a monotone path (Hömberg 1996).
+    // amount must equal the closed form at the final temperature. Tolerance 5e-5 (toBeCloseTo with
+    // 4 decimals): the piece ends within 1e-3 K of 20 °C (≈ 1e-5 in f) and the rate form
+    // integrated exactly per step agrees with the closed form on a monotone path (Hömberg 1996).
     const finalT_C = s.T[5] - K;
     expect(Math.abs(finalT_C - 20)).toBeLessThan(1e-3);
     expect(martensite).toBeCloseTo(1 - Math.exp(-0.011 * (MS_CRMO_C - 20)), 4);

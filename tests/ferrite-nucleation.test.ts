@@ -32,7 +32,8 @@ describe("tetrakaidecahedron stereology behind S_V and L̄", () => {
 
 describe("carbon diffusivity in austenite", () => {
   it("agrees with the textbook Arrhenius fit D0 = 2.3e−5 m²/s, Q = 148 kJ/mol within 25 % at 0.1 %C, 800–1100 °C", () => {
-    // pub: Callister, Materials Science and Engineering, Table 5.2 (C in γ-Fe). Tolerance 25 %:
+    // pub: Callister, Materials Science and Engineering: An Introduction, Table 5.2 (C in γ-Fe;
+    // edition and year not recorded here). Tolerance 25 %:
     // the textbook fit has a two-figure D0 and no carbon dependence, while D_C rises ~40 % from
     // 0.1 to 0.4 %C (Ågren 1986, from memory).
     for (const T_K of [1073, 1173, 1273, 1373]) {

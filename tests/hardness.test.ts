@@ -11,8 +11,10 @@ import {
 import { pickeringStrength } from "../src/physics/strength.js";
 import { ModelInputError } from "../src/physics/grain-floor.js";
 
-// Maynier, Jungmann & Dollet (1978), published equations (coefficients confirmed in independent
-// public copies). Check values computed by hand below from the published formula, with
+// Maynier, Jungmann & Dollet (1978), published equations (coefficients as stated in hardness.ts;
+// physics.md does not list them yet, so these are checks of the code against the formula as
+// printed there, not against an independently confirmed copy). Check values computed by hand
+// below from that formula, with
 // V_r = 10 K/s · 3600 = 36 000 °C/h, log10 V_r = 4.5563025.
 const alloy = fullComposition({ C: 0.4, Mn: 0.9, Si: 0.25, Cr: 1.0, Mo: 0.2 });
 const LOG_VR = 4.5563025007672873;

@@ -54,7 +54,7 @@ describe("JMAK constants from start and finish times (physics.md §5.3)", () => 
     expect(Array.from(table.T_K)).toEqual([873.15, 923.15, 973.15]);
     const i = jmakInterval(table, 948.15);
     expect(i).toBe(1);
-    expect(jmakWeight(table, i, 948.15)).toBeCloseTo(0.5, 12);
+    expect(jmakWeight(table, i, 948.15)).toBeCloseTo(0.5, 12); // (948.15 − 923.15)/50: round-off only
     expect(jmakInterval(table, 873.15)).toBe(0);
     expect(jmakInterval(table, 973.15)).toBe(1);
     expect(jmakInterval(table, 873.0)).toBe(-1);
@@ -83,7 +83,8 @@ describe("Equivalent-time growth (Hawbolt, Chau & Brimacombe 1983)", () => {
 
   it("with a common n, adds k^(1/n)·t over two holds (the additivity closed form)", () => {
     // Y = 1 − exp(−(k₁^(1/n) t₁ + k₂^(1/n) t₂)ⁿ) follows from additivity when n is the same at both
-    // temperatures (Cahn's isokinetic condition); round-off only, 1e−12.
+    // temperatures (Cahn's isokinetic condition, Acta Metall. 4 (1956) 572 — citation from memory);
+    // round-off only, 1e−12.
     const n = 2.5;
     const lnk1 = Math.log(1e-4);
     const lnk2 = Math.log(3e-3);

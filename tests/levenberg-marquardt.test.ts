@@ -1,7 +1,7 @@
 /**
  * Regularised least squares (src/io/levenberg-marquardt.ts) against closed forms: ordinary linear
  * regression (normal equations, covariance s²(XᵀX)⁻¹, Draper & Smith, Applied Regression Analysis,
- * ch. 5) and ridge regression ((XᵀX + λI)⁻¹Xᵀy, Hoerl & Kennard 1970), and an exponential decay
+ * 3rd ed. 1998, ch. 5 — edition and chapter from memory) and ridge regression ((XᵀX + λI)⁻¹Xᵀy, Hoerl & Kennard 1970), and an exponential decay
  * recovered exactly from noise-free data.
  */
 import { describe, expect, it } from "vitest";
@@ -47,6 +47,7 @@ describe("least squares", () => {
     const sxx = xs.reduce((s, x) => s + x * x, 0);
     const XtY = [ys.reduce((s, y) => s + y, 0), xs.reduce((s, x, i) => s + x * ys[i], 0)];
     const ref = solveDense([[n + lambda, sx], [sx, sxx + lambda]], XtY)!;
+    // Still linear residuals: as above, limited by the 1e-6 forward-difference step (6 decimals).
     expect(fit.theta[0]).toBeCloseTo(ref[0], 6);
     expect(fit.theta[1]).toBeCloseTo(ref[1], 6);
     expect(fit.degreesOfFreedom).toBeGreaterThan(4); // shrinkage frees degrees of freedom

@@ -91,8 +91,8 @@ describe("a run-out-table case with a mistake is refused with one line naming th
 
   it("an entry-temperature CSV with a blank line before the malformed row reports the row as the file counts it", () => {
     // Row 5 of the file (a spreadsheet shows the blank line as row 3, "600,hot" as row 5).
-    // src/io/resolve-case.ts readEntryProfile numbers the parsed records (blank lines skipped),
-    // so it reports row 4 — this test fails until it uses csv-parse's line numbers.
+    // Regression guard: readEntryProfile once numbered the parsed records (blank lines skipped)
+    // and reported row 4; since commit 968ece3 it numbers rows as the file counts lines.
     const kase = demoCoil((c) => (c.cooling.coil = { length_m: 900, segments: 30, entry_csv: "entry.csv" }));
     const line = refused("csv-blank", kase, "position_m,T_C\n0,870\n\n300,860\n600,hot\n900,850\n");
     expect(line).toContain("row 5");

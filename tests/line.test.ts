@@ -344,8 +344,10 @@ describe("a coil of segments", () => {
       const expected = [887.5, 862.5, 865];
       const segments = coilSegments(file, (kase.cooling as { coil: Parameters<typeof coilSegments>[1] }).coil);
       // Linear interpolation of the rows: exact up to round-off (1e-9 K).
+      expect(segments).toHaveLength(3);
       segments.forEach((s, i) => expect(Math.abs(s.entry_C - expected[i])).toBeLessThan(1e-9));
       const rows = await runCoil(file, kase, { workers: 1 });
+      expect(rows).toHaveLength(3);
       rows.forEach((r, i) => {
         expect(r.entry_C).toBe(expected[i]);
         // The pyrometer at 0 m sees the entry temperature of that segment.

@@ -57,6 +57,8 @@ describe("phase enthalpies give the published transformation heats", () => {
       // Relative 1e−12: a single subtraction chain of ~1e5 J/kg magnitudes.
       expect(Math.abs(hG - phaseEnthalpy_J_kg(BAINITE, T, opts) - 0.8 * (hG - hA))).toBeLessThan(1e-9 * hG);
       expect(Math.abs(hG - phaseEnthalpy_J_kg(MARTENSITE, T, opts) - 0.7 * (hG - hA))).toBeLessThan(1e-9 * hG);
+      // Limits s = 0 and s = 1 of the same expression: round-off on ~1e5–1e6 J/kg (≤ 1e-9 J/kg),
+      // so 6 decimals (|Δ| < 5e-7 J/kg) is ample.
       expect(phaseEnthalpy_J_kg(MARTENSITE, T, { martensiteStoredFraction: 0 })).toBeCloseTo(hA, 6);
       expect(phaseEnthalpy_J_kg(BAINITE, T, { bainiteStoredFraction: 1 })).toBeCloseTo(hG, 6);
     }
@@ -135,6 +137,7 @@ describe("phase conductivities agree with handbook data", () => {
         expect(Math.abs(k - kEN) / kEN).toBeLessThan(0.1);
       }
     }
+    // The EN formula itself at 20 °C (54 − 3.33e−2·20): round-off only, 10 decimals.
     expect(eurocodeSteelConductivity_W_mK(20)).toBeCloseTo(54 - 0.666, 10);
     expect(eurocodeSteelConductivity_W_mK(900)).toBe(27.3);
   });

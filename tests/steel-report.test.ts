@@ -146,7 +146,10 @@ describe("critical temperatures in the report", () => {
   it("name the formula used, or say the value was given and what the formula gives", () => {
     const r = report({ critical_C: { Ms: 300 } });
     const line = new Map(r.critical.map((c) => [c.name, c]));
-    // Andrews (1965) Ae3 and Ae1, Bs of Li's model (physics.md §4 table: 785.0, 722.2, 584.6).
+    // Andrews (1965) Ae3 and Ae1, Bs of Li's model (physics.md §4 table: 785.0, 722.2, 584.6,
+    // printed to 0.1 °C: half a unit plus 1 %). First the formulas written out in this file against
+    // the table, then the report against those formulas (same arithmetic: 9 decimals, round-off).
+    for (const [formula, table] of [[AE3, 785.0], [AE1, 722.2], [BS, 584.6]]) expect(Math.abs(formula - table)).toBeLessThanOrEqual(0.05 * 1.01);
     expect(line.get("Ae3")!.T_C).toBeCloseTo(AE3, 9);
     expect(line.get("Ae3")!.source).toContain("Andrews");
     expect(line.get("Ae1")!.T_C).toBeCloseTo(AE1, 9);

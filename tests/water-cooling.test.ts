@@ -178,7 +178,8 @@ describe("defaults against published correlations and typical magnitudes", () =>
   });
 
   it("keeps every default critical heat flux above the pool CHF of saturated water (Zuber, ≈ 1.1 MW/m²)", () => {
-    // Zuber's pool CHF q = 0.131 ρ_v h_fg [σ g (ρ_l − ρ_v)/ρ_v²]^¼ with saturated water at 1 atm
+    // Zuber's pool CHF (N. Zuber, 1959 — citation from memory; physics.md §6 [calc from mem formula])
+    // q = 0.131 ρ_v h_fg [σ g (ρ_l − ρ_v)/ρ_v²]^¼ with saturated water at 1 atm
     // (Incropera & DeWitt Table A.6, values from memory: ρ_l = 957.9, ρ_v = 0.5955 kg/m³,
     // h_fg = 2.257e6 J/kg, σ = 58.9e-3 N/m) gives 1.11 MW/m², the low end of physics.md's
     // 1.1–1.3 MW/m². Subcooled, flowing or impinging water exceeds it (from memory), so each
@@ -194,6 +195,7 @@ describe("parameters, header flow and warnings", () => {
   it("converts a header's flow over its wetted area into water flux density in L/(m²·s)", () => {
     // physics.md §9: curtains of 0.3–0.9 m³/min per metre of width. 0.6 m³/min/m on a 1.5 m strip
     // is 54 m³/h; over a 1.5 m zone: 54 000 L / 3600 s / 2.25 m² = 6.667 L/(m²·s) (by hand).
+    // Unit conversion only: round-off, 12 decimals.
     expect(waterFluxDensity_L_m2s(54, 1.5, 1.5)).toBeCloseTo(54000 / 3600 / 2.25, 12);
     expect(waterFluxDensity_L_m2s(3.6, 1, 1)).toBeCloseTo(1, 12); // 3.6 m³/h on 1 m² is 1 L/s per m²
   });

@@ -5,7 +5,8 @@
 
 /**
  * erf(x) by its Maclaurin series for |x| < 3 and the asymptotic continued fraction beyond
- * (Abramowitz & Stegun 7.1.5 and 7.1.14); relative accuracy better than 1e-13 on the range used.
+ * (Abramowitz & Stegun, Handbook of Mathematical Functions (1964), 7.1.5 and 7.1.14); relative
+ * accuracy better than 1e-13 on the range used.
  */
 export function erf(x: number): number {
   const ax = Math.abs(x);
