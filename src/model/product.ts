@@ -4,8 +4,9 @@
  * grain-size floor at the node's own transformation temperature, strength and hardness.
  *
  * What is recorded along the path, per node (allocation-free after construction):
- * - the time and temperature at which the ferrite fraction crosses every level k·0.0025, so that
- *   after the run the points at 1 % and 50 % of the node's FINAL ferrite can be interpolated;
+ * - the time and temperature at which the ferrite fraction crosses each of a ladder of levels
+ *   (geometric from 1e-4, then every 0.0025 to 1), so that after the run the points at 1 % and 50 % of the node's FINAL
+ *   ferrite can be interpolated;
  * - the cooling rate when the node first cools through 700 °C (the rate Maynier's hardness
  *   equations are written for);
  * - grain-boundary nucleation (FerriteNucleation) integrated at the step's mid temperature.
@@ -32,8 +33,22 @@ import type { Composition, ValidityWarning } from "../physics/composition.js";
 import type { ThroughThicknessSolver } from "../numerics/conduction1d.js";
 import { KELVIN } from "./scenario.js";
 
-const LEVEL = 0.0025;
-const LEVELS = Math.round(1 / LEVEL);
+/**
+ * Ferrite crossing levels: geometric from 1e-4 (ratio 1.05) up to 0.0025, then every 0.0025 up
+ * to 1. Fine where a node's first ferrite forms, so that 1 % of even a small final amount (down to
+ * 1 % ferrite) is located by interpolation between close levels, and fine in absolute terms later,
+ * so the 50 % point of a large amount is too.
+ */
+const LEVEL_STEP = 0.0025;
+const LEVEL_VALUES: Float64Array = (() => {
+  const v: number[] = [];
+  for (let x = 1e-4; x < LEVEL_STEP; x *= 1.05) v.push(x);
+  for (let m = 1; m * LEVEL_STEP <= 1 + 1e-12; m++) v.push(m * LEVEL_STEP);
+  return Float64Array.from(v);
+})();
+const LEVELS = LEVEL_VALUES.length;
+/** Least final ferrite fraction for which a ferrite grain size is reported. */
+const MIN_FERRITE = 0.01;
 const T700_K = 700 + KELVIN;
 
 export type GrainModel = "empirical" | "mechanistic";
@@ -118,8 +133,8 @@ export class ProductTracker {
       const x0 = this.Xprev[i];
       const x1 = X[i];
       let k = this.nextLevel[i];
-      while (k < LEVELS && x1 >= (k + 1) * LEVEL) {
-        const level = (k + 1) * LEVEL;
+      while (k < LEVELS && x1 >= LEVEL_VALUES[k]) {
+        const level = LEVEL_VALUES[k];
         const w = x1 > x0 ? (level - x0) / (x1 - x0) : 1;
         this.crossT[i * LEVELS + k] = this.Tprev[i] + w * (T[i] - this.Tprev[i]);
         this.crossTime[i * LEVELS + k] = this.tPrev + w * dt;
@@ -136,13 +151,21 @@ export class ProductTracker {
 
   /** Time and temperature [s, K] at which node i's ferrite reached `fraction`, or null. */
   private crossing(i: number, fraction: number): { t: number; T: number } | null {
-    const u = fraction / LEVEL - 1; // level index (0-based) of `fraction`
     const reached = this.nextLevel[i];
-    if (reached === 0) return null;
-    const k = Math.min(Math.max(0, Math.floor(u)), reached - 1);
-    const f = u - k;
+    if (reached === 0 || fraction < LEVEL_VALUES[0]) return null;
+    // Last level at or below `fraction` (binary search), clamped to the levels reached.
+    let lo = 0;
+    let hi = LEVELS - 1;
+    while (hi > lo) {
+      const mid = (lo + hi + 1) >> 1;
+      if (LEVEL_VALUES[mid] <= fraction) lo = mid;
+      else hi = mid - 1;
+    }
+    const k = Math.min(lo, reached - 1);
     const o = i * LEVELS + k;
-    if (f <= 0 || k + 1 >= reached) return { t: this.crossTime[o], T: this.crossT[o] };
+    if (k + 1 >= reached) return { t: this.crossTime[o], T: this.crossT[o] };
+    // Linear in the ferrite fraction between the two bracketing levels.
+    const f = (fraction - LEVEL_VALUES[k]) / (LEVEL_VALUES[k + 1] - LEVEL_VALUES[k]);
     return { t: this.crossTime[o] + f * (this.crossTime[o + 1] - this.crossTime[o]), T: this.crossT[o] + f * (this.crossT[o + 1] - this.crossT[o]) };
   }
 
@@ -163,7 +186,7 @@ export class ProductTracker {
       let startC: number | null = null;
       let halfC: number | null = null;
       let rate: number | null = null;
-      if (xF >= LEVEL) {
+      if (xF >= MIN_FERRITE) {
         const a = this.crossing(i, 0.01 * xF);
         const b = this.crossing(i, 0.5 * xF);
         const b90 = this.crossing(i, 0.9 * xF);
@@ -186,7 +209,7 @@ export class ProductTracker {
           }
         }
         grainMech = this.nucleation.meanIntercept_um(i, xF);
-      } else reasons.push("no ferrite formed: no ferrite grain size");
+      } else reasons.push(xF > 0 ? "less than 1 % ferrite formed: no ferrite grain size" : "no ferrite formed: no ferrite grain size");
       const grain = this.options.grainModel === "empirical" ? grainEmp : grainMech;
       // Hardness and strength.
       const transformed = 1 - fractions[AUSTENITE];
