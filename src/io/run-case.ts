@@ -261,7 +261,7 @@ function addProductSummary(summary: Record<string, unknown>, result: SimulationR
   for (const p of products) for (const r of p.reasons) reasons.add(r);
   summary.product = {
     grain_model: grainModel === "empirical" ? "empirical (Hodgson–Gibbs type; coefficients from memory)" : "mechanistic (grain-boundary nucleation, calibrated to the empirical relation)",
-    strength_model: "Pickering (1978) for ferrite–pearlite; Maynier (1978) hardness with TS ≈ 3.3 HV for bainite and martensite",
+    strength_model: "Pickering (1978; full equations from memory) for ferrite–pearlite; Maynier, Jungmann & Dollet (1978) hardness with the TS ≈ 3.3 HV rule of thumb for bainite and martensite",
     notes: [...reasons].sort(),
   };
   const depths = summary.depths as Array<Record<string, unknown>>;
