@@ -23,9 +23,10 @@ export function registerCommands(program: Command): void {
     .option("-q, --quiet", "print nothing on success")
     .option("-j, --workers <n>", "worker threads for coil segments (default: all cores)", parseWorkers)
     .option("--force", "run even when the up-front work estimate exceeds the stated limits")
-    .action(async (file: string, opts: { out: string; quiet?: boolean; workers?: number; force?: boolean }) => {
+    .option("--chart", "also write cooling.svg, a chart of the cooling path and the transformation")
+    .action(async (file: string, opts: { out: string; quiet?: boolean; workers?: number; force?: boolean; chart?: boolean }) => {
       const progress = progressPrinter("segments");
-      const { summary, warnings } = await runCaseIsolated(file, opts.out, { workers: opts.workers, force: opts.force, onProgress: progress.update });
+      const { summary, warnings } = await runCaseIsolated(file, opts.out, { workers: opts.workers, force: opts.force, chart: opts.chart, onProgress: progress.update });
       progress.done();
       for (const w of warnings) process.stderr.write(`warning: ${w}\n`);
       if (!opts.quiet) process.stdout.write(describeRun(summary, opts.out));

@@ -31,7 +31,7 @@ export async function runCaseIsolated(file: string, out: string, options: RunOpt
     return { summary: o.summary, warnings: o.warnings };
   }
   loadCase(file); // bad input fails here, before a thread is started
-  const worker = new Worker(path, { workerData: { file, out, workers: options.workers, force: options.force } });
+  const worker = new Worker(path, { workerData: { file, out, workers: options.workers, force: options.force, chart: options.chart } });
   active = { worker, out };
   try {
     return await new Promise((resolve, reject) => {

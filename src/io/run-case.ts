@@ -15,6 +15,8 @@ import { describeWarning } from "../physics/composition.js";
 import { ProductTracker, type NodeProduct } from "../model/product.js";
 import type { Case } from "./case-schema.js";
 import { InputError } from "./errors.js";
+import { readFileSync } from "node:fs";
+import { writeChartIfAsked } from "./cooling-chart.js";
 
 export interface RunOutcome {
   readonly summary: Record<string, unknown>;
@@ -301,7 +303,7 @@ function addPenalty(summary: Record<string, unknown>, resolved: ResolvedCase, re
 }
 
 /** Runs a case file and writes DIR/summary.json, DIR/history.csv and DIR/profile.csv. */
-export function runCaseFile(file: string, outDir: string, force = false): RunOutcome {
+export function runCaseFile(file: string, outDir: string, force = false, chart = false): RunOutcome {
   const c = loadCase(file);
   const resolved = resolveCase(file, c);
   guardWork(file, c, resolved, 1, force);
@@ -312,6 +314,7 @@ export function runCaseFile(file: string, outDir: string, force = false): RunOut
     history.close();
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
     folder.writeFile("profile.csv", profileCsv(result, products));
+    writeChartIfAsked(chart, (n, t) => folder.writeFile(n, t), () => readFileSync(folder.path("history.csv"), "utf8"), summary);
     folder.commit();
     return { summary, result, warnings };
   } catch (e) {
@@ -417,6 +420,8 @@ export function guardWork(file: string, c: Case, resolved: ResolvedCase, segment
 
 export interface RunOptions {
   readonly force?: boolean;
+  /** Also write cooling.svg (the cooling-path chart). */
+  readonly chart?: boolean;
   readonly workers?: number;
   readonly onProgress?: (done: number, total: number) => void;
 }
@@ -433,10 +438,10 @@ export async function runCase(file: string, outDir: string, options: RunOptions 
     if (!options.force && cellSteps > WORK_LIMITS.cellSteps) {
       throw new InputError(file, "numerics.time_step_s", `the run needs about ${cellSteps.toExponential(2)} cell-steps, above the limit of ${WORK_LIMITS.cellSteps.toExponential(0)}; use a longer step, fewer cells, or --force`);
     }
-    const o = runSectionCase(file, c, outDir);
+    const o = runSectionCase(file, c, outDir, options.chart ?? false);
     return { summary: o.summary, warnings: o.warnings };
   }
-  if (!("line" in c.cooling) || !c.cooling.coil) return runCaseFile(file, outDir, options.force);
+  if (!("line" in c.cooling) || !c.cooling.coil) return runCaseFile(file, outDir, options.force, options.chart);
   const segments = coilSegments(file, c.cooling.coil);
   const body = segments[Math.floor((segments.length - 1) / 2)];
   const resolved = resolveCase(file, c, { coilPosition_m: body.position_m, entry_C: body.entry_C, segment: body.index });
@@ -453,6 +458,7 @@ export async function runCase(file: string, outDir: string, options: RunOptions 
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
     folder.writeFile("profile.csv", profileCsv(result, products));
     folder.writeFile("coil.csv", coilCsv(rows, resolved.line!.spec.pyrometers_m));
+    writeChartIfAsked(options.chart ?? false, (n, t) => folder.writeFile(n, t), () => readFileSync(folder.path("history.csv"), "utf8"), summary);
     folder.commit();
     return { summary, result, warnings };
   } catch (e) {

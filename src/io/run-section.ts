@@ -9,6 +9,8 @@ import { KELVIN } from "../model/scenario.js";
 import { simulateSection, domainX, type SectionScenario, type SectionResult } from "../model/section.js";
 import { ProductTracker, type NodeProduct } from "../model/product.js";
 import { ResultFolder } from "./result-folder.js";
+import { readFileSync } from "node:fs";
+import { writeChartIfAsked } from "./cooling-chart.js";
 import { DECIMALS, decimalsForColumn, fixed, round, significant } from "./format.js";
 import { SAFETY_NOTICE } from "./safety.js";
 import { PHASES } from "../physics/phases.js";
@@ -74,7 +76,7 @@ function places(s: SectionScenario): Record<string, [number, number]> {
   return { top: [0, 0], centre: [0, s.thickness_m / 2], bottom: [0, s.thickness_m], edge: [s.width_m / 2, s.thickness_m / 2], corner: [s.width_m / 2, 0] };
 }
 
-export function runSectionCase(file: string, c: Case, outDir: string): { summary: Record<string, unknown>; warnings: string[] } {
+export function runSectionCase(file: string, c: Case, outDir: string, chart = false): { summary: Record<string, unknown>; warnings: string[] } {
   const resolved = resolveSection(c);
   const s = resolved.scenario;
   const steel = resolved.steel;
@@ -111,6 +113,7 @@ export function runSectionCase(file: string, c: Case, outDir: string): { summary
     if (steel) steel.extendSummary(summary, result as never);
     folder.writeFile("summary.json", JSON.stringify(summary, null, 2) + "\n");
     folder.writeFile("profile.csv", sectionProfile(s, result, products));
+    writeChartIfAsked(chart, (n, t) => folder.writeFile(n, t), () => readFileSync(folder.path("history.csv"), "utf8"), summary);
     folder.commit();
     void file;
     return { summary, warnings };

@@ -8,10 +8,11 @@ import { runCase } from "./run-case.js";
 import { InputError } from "./errors.js";
 import { WriteError } from "./result-folder.js";
 
-const data = workerData as { file: string; out: string; workers?: number; force?: boolean };
+const data = workerData as { file: string; out: string; workers?: number; force?: boolean; chart?: boolean };
 runCase(data.file, data.out, {
   workers: data.workers,
   force: data.force,
+  chart: data.chart,
   onProgress: (done, total) => parentPort!.postMessage({ kind: "progress", done, total }),
 }).then(
   (o) => parentPort!.postMessage({ kind: "done", summary: o.summary, warnings: o.warnings }),
