@@ -12,15 +12,33 @@
  * An empty field means the product cannot form at that temperature in the model (or, for a hold
  * near absolute zero, that its time overflows a double). Times carry six significant digits. The time scales of the case are already applied.
  *
+ * With --cct the report also holds the continuous-cooling table (model/cct-diagram.ts): one point
+ * cooled at each constant rate from the entry temperature to 20 °C along a prescribed path (no
+ * latent heat feedback). Rates are given as comma-separated K/s (each > 0 and ≤ 100000, at most
+ * 100 of them), printed in ascending order, a repeated rate once. Its CSV (--cct-csv), one header
+ * line, then one row per rate, slowest first:
+ *   rate_K_s            constant cooling rate [K/s], six significant digits
+ *   start_C             temperature at which 1 % of the volume has transformed [°C], 3 decimals
+ *   start_product       the product forming there (ferrite, pearlite, bainite or martensite)
+ *   ferrite_start_C, pearlite_start_C, bainite_start_C, martensite_start_C
+ *                       temperature at which that product reached 1 % of the volume [°C]
+ *   ferrite_fraction, pearlite_fraction, bainite_fraction, martensite_fraction,
+ *   austenite_fraction  fractions at 20 °C [−], 6 decimals; austenite is the retained austenite
+ *   hardness_HV         Maynier et al. (1978) hardness of the transformed products, with the rate as
+ *                       the cooling rate at 700 °C [HV], 1 decimal
+ * An empty field means: no start (below 1 % of the volume down to 20 °C), or no hardness (nothing
+ * transformed).
+ *
  * Input problems (a case without a steel composition, no carbon, a bad range option) are
  * InputErrors naming the file or option, the field and the expected unit or range.
  */
 import type { Case } from "./case-schema.js";
 import { InputError } from "./errors.js";
-import { fixed, significant } from "./format.js";
+import { DECIMALS, fixed, significant } from "./format.js";
 import { SAFETY_NOTICE } from "./safety.js";
 import { resolveSteel, type CriticalUsed } from "../model/steel.js";
 import { DIAGRAM_PRODUCTS, isothermalDiagram, type DiagramRow } from "../model/isothermal-diagram.js";
+import { CCT_PRODUCTS, DEFAULT_CCT_RATES_K_s, cctDiagram, cctEntryTemperature_C, type CctDiagram, type CctRow } from "../model/cct-diagram.js";
 import { criticalTemperatures } from "../physics/critical-temperatures.js";
 import { describeWarning } from "../physics/composition.js";
 
@@ -34,6 +52,19 @@ export interface DiagramRangeOptions {
   readonly fromC?: string | number;
   readonly toC?: string | number;
   readonly stepK?: string | number;
+}
+
+/** Fastest cooling rate --cct accepts [K/s] (a guard against a rate typed in the wrong unit). */
+export const MAX_CCT_RATE_K_s = 1e5;
+/** Most rates --cct accepts. */
+export const MAX_CCT_RATES = 100;
+
+export interface SteelReportOptions extends DiagramRangeOptions {
+  /**
+   * The CCT table's rates: comma-separated K/s as typed after --cct, true for the default list
+   * (--cct without a value), or numbers from a caller; absent: no CCT table.
+   */
+  readonly cct?: string | true | readonly number[];
 }
 
 export interface CriticalLine {
@@ -55,6 +86,8 @@ export interface SteelReport {
   readonly latentHeat: boolean;
   readonly step_K: number;
   readonly rows: readonly DiagramRow[];
+  /** The continuous-cooling table, when asked for. */
+  readonly cct: CctDiagram | null;
   readonly warnings: readonly string[];
 }
 
@@ -67,8 +100,27 @@ export function numberOption(option: string, raw: string | number, unit: string,
   return value;
 }
 
+/**
+ * The cooling rates of --cct [K/s], ascending, each once: the default list for true, else every
+ * comma-separated value (or given number) must be a number above 0 and at most MAX_CCT_RATE_K_s;
+ * otherwise an InputError naming --cct.
+ */
+export function cctRates(raw: string | true | readonly number[]): number[] {
+  if (raw === true) return [...DEFAULT_CCT_RATES_K_s];
+  const items: (string | number)[] = typeof raw === "string" ? raw.split(",") : [...raw];
+  const expected = `expected comma-separated cooling rates in K/s, each above 0 and at most ${MAX_CCT_RATE_K_s}, at most ${MAX_CCT_RATES} of them (e.g. 0.3,3,30)`;
+  if (items.length > MAX_CCT_RATES) throw new InputError("option --cct", "", `${expected}; got ${items.length} rates`);
+  const rates: number[] = [];
+  for (const item of items) {
+    const value = typeof item === "number" ? item : item.trim() === "" ? NaN : Number(item);
+    if (!(Number.isFinite(value) && value > 0 && value <= MAX_CCT_RATE_K_s)) throw new InputError("option --cct", "", `${expected}; got "${String(item).trim()}"`);
+    if (!rates.includes(value)) rates.push(value);
+  }
+  return rates.sort((a, b) => a - b);
+}
+
 /** The case's steel report over the requested (or default) temperature range. */
-export function steelReport(file: string, c: Case, options: DiagramRangeOptions = {}): SteelReport {
+export function steelReport(file: string, c: Case, options: SteelReportOptions = {}): SteelReport {
   const m = c.material;
   if (!m.composition_wt_pct) {
     throw new InputError(file, "material.composition_wt_pct", 'missing; the steel command needs the steel\'s composition in wt%, e.g. { "C": 0.45, "Mn": 0.75 }');
@@ -95,10 +147,16 @@ export function steelReport(file: string, c: Case, options: DiagramRangeOptions 
   const step_K = options.stepK === undefined ? DEFAULT_STEP_K : numberOption("--step-K", options.stepK, "K", 1e-3, 1000);
   const temperatures = diagramTemperatures(used, steel.composition.C, options, step_K);
   const diagram = isothermalDiagram(steel.decomposition, temperatures);
+  const rates = options.cct === undefined ? null : cctRates(options.cct);
+  const cct = rates === null ? null : cctDiagram(steel.decomposition, rates, { entry_C: cctEntryTemperature_C(used, c.product.initial_C) });
 
   const composition: Record<string, number> = {};
   for (const [e, v] of Object.entries(steel.composition)) if (v !== 0) composition[e] = v;
-  const warnings = [...steel.warnings, ...diagram.warnings.map(describeWarning)];
+  const warnings = [...steel.warnings];
+  for (const w of [...diagram.warnings, ...(cct?.warnings ?? [])]) {
+    const text = describeWarning(w);
+    if (!warnings.includes(text)) warnings.push(text);
+  }
   if (!steel.transformation) warnings.push('material.transformation is "off": the solver will not use these kinetics for this case');
   return {
     title: c.title,
@@ -112,6 +170,7 @@ export function steelReport(file: string, c: Case, options: DiagramRangeOptions 
     latentHeat: steel.latentHeat,
     step_K,
     rows: diagram.rows,
+    cct,
     warnings,
   };
 }
@@ -194,6 +253,7 @@ export function formatSteelReport(r: SteelReport): string {
   lines.push("  solver pearlite also waits until ferrite has enriched the austenite in carbon (Hultgren), so in");
   lines.push("  a hypo-eutectoid steel it starts later than its own clock shown here. Below Ms martensite forms");
   lines.push("  on cooling (Koistinen–Marburger), not with time.");
+  if (r.cct) lines.push("", ...formatCct(r.cct));
   if (r.warnings.length > 0) {
     lines.push("  warnings:");
     for (const w of r.warnings) lines.push(`    ${w}`);
@@ -217,6 +277,67 @@ export function steelReportCsv(r: SteelReport): string {
       const t = row.times[p];
       cells.push(t ? csvTime(t.start_s) : "", t ? csvTime(t.finish_s) : "");
     }
+    out += cells.join(",") + "\n";
+  }
+  return out;
+}
+
+/** A fraction for the text table: three decimals. */
+function formatFraction(x: number): string {
+  return fixed(x, 3);
+}
+
+/** A start temperature for the text table: one decimal, or a dash. */
+function formatStart(T_C: number | null): string {
+  return T_C === null ? DASH : fixed(T_C, 1);
+}
+
+/** Column labels of the CCT products (eight characters at most). */
+const CCT_LABELS: Readonly<Record<(typeof CCT_PRODUCTS)[number], string>> = { ferrite: "ferrite", pearlite: "pearlite", bainite: "bainite", martensite: "martens." };
+
+/** The CCT table as text lines (under the isothermal one). */
+function formatCct(d: CctDiagram): string[] {
+  const lines: string[] = [];
+  lines.push(`  continuous cooling (CCT) at constant rates from ${formatTemperature_C(d.entry_C)} °C to ${formatTemperature_C(d.end_C)} °C, along a prescribed path as a`);
+  lines.push("  dilatometer imposes it (the products' latent heat does not feed back into the temperature):");
+  const w = 9;
+  const labels = CCT_PRODUCTS.map((p) => CCT_LABELS[p].padStart(w)).join("");
+  lines.push("      rate     start" + "".padEnd(12) + centred("each product's start [°C]", 4 * w) + centred(`fractions at ${formatTemperature_C(d.end_C)} °C`, 5 * w) + "hardness");
+  lines.push("     [K/s]      [°C]  as        " + labels + labels + "austen.".padStart(w) + "    [HV]");
+  for (const row of d.rows) lines.push(formatCctRow(row, w));
+  lines.push(`  start = 1 % of the volume transformed; "as" = the product forming at that moment (it may itself`);
+  lines.push(`  stay below 1 %); a product's start = 1 % of the volume of it; ${DASH} not reached down to ${formatTemperature_C(d.end_C)} °C.`);
+  lines.push("  Hardness: Maynier et al. (1978) of the transformed products (it has no term for retained");
+  lines.push("  austenite), with the constant rate as the cooling rate at 700 °C. Entry temperature: the");
+  lines.push("  higher of the case's initial temperature and 50 K above the highest of Ae3, Ae1 and Bs.");
+  return lines;
+}
+
+function formatCctRow(row: CctRow, w: number): string {
+  let line = String(significant(row.rate_K_s, 6)).padStart(10) + formatStart(row.start_C).padStart(10) + "  " + (row.startProduct ?? DASH).padEnd(10);
+  for (const p of CCT_PRODUCTS) line += formatStart(row.productStart_C[p]).padStart(w);
+  const f = row.fractions;
+  for (const x of [f.ferrite, f.pearlite, f.bainite, f.martensite, f.austenite]) line += formatFraction(x).padStart(w);
+  line += (row.hardness_HV === null ? DASH : fixed(row.hardness_HV, 0)).padStart(8);
+  return line;
+}
+
+/** The CCT table as CSV (layout in the file comment); an empty string when it was not asked for. */
+export function cctCsv(r: SteelReport): string {
+  if (r.cct === null) return "";
+  const header = ["rate_K_s", "start_C", "start_product", ...CCT_PRODUCTS.map((p) => `${p}_start_C`), ...[...CCT_PRODUCTS, "austenite"].map((p) => `${p}_fraction`), "hardness_HV"];
+  const temperature = (T_C: number | null): string => (T_C === null ? "" : fixed(T_C, DECIMALS.T_C));
+  let out = header.join(",") + "\n";
+  for (const row of r.cct.rows) {
+    const f = row.fractions;
+    const cells = [
+      String(significant(row.rate_K_s)),
+      temperature(row.start_C),
+      row.startProduct ?? "",
+      ...CCT_PRODUCTS.map((p) => temperature(row.productStart_C[p])),
+      ...[f.ferrite, f.pearlite, f.bainite, f.martensite, f.austenite].map((x) => fixed(x, DECIMALS.fraction)),
+      row.hardness_HV === null ? "" : fixed(row.hardness_HV, DECIMALS.strength),
+    ];
     out += cells.join(",") + "\n";
   }
   return out;
