@@ -91,10 +91,22 @@ function describeRun(summary: Record<string, unknown>, out: string): string {
   const t = s.final.T_C as { top: number; centre: number; bottom: number; mean: number; edge?: number; corner?: number };
   const lines = [
     `${s.title}`,
-    `  after ${s.end_time_s} s: top ${t.top.toFixed(1)} °C, centre ${t.centre.toFixed(1)} °C, bottom ${t.bottom.toFixed(1)} °C${t.edge === undefined ? "" : `, edge ${t.edge.toFixed(1)} °C, corner ${t.corner!.toFixed(1)} °C`}, mean ${t.mean.toFixed(1)} °C`,
+    `  after ${s.end_time_s.toFixed(2)} s: top ${t.top.toFixed(1)} °C, centre ${t.centre.toFixed(1)} °C, bottom ${t.bottom.toFixed(1)} °C${t.edge === undefined ? "" : `, edge ${t.edge.toFixed(1)} °C, corner ${t.corner!.toFixed(1)} °C`}, mean ${t.mean.toFixed(1)} °C`,
   ];
   if (s.final.phases) {
     lines.push("  phases (mass average): " + Object.entries(s.final.phases).map(([k, v]) => `${k} ${(v * 100).toFixed(1)} %`).join(", "));
+  }
+  const f = s.final as Record<string, { mean?: number | null } | undefined>;
+  if (f.grain_um || f.tensile_MPa) {
+    const v = (k: string, unit: string, d: number) => (f[k]?.mean === null || f[k]?.mean === undefined ? `${k.split("_")[0]} —` : `${k.split("_")[0]} ${f[k]!.mean!.toFixed(d)} ${unit}`);
+    lines.push(`  product (mean through thickness): ${v("grain_um", "µm", 1)}, ${v("yield_MPa", "MPa", 0)}, ${v("tensile_MPa", "MPa", 0)}, ${v("hardness_HV", "HV", 0)}`);
+  }
+  const penalty = (summary.recalescence_penalty as Array<{ depth_mm: number; grain_coarsening_um: number | null; ferrite_half_raised_K: number | null }> | undefined) ?? [];
+  const worst = penalty.filter((p) => p.grain_coarsening_um !== null).sort((a, b) => (b.grain_coarsening_um ?? 0) - (a.grain_coarsening_um ?? 0))[0];
+  if (worst) {
+    lines.push(
+      `  recalescence penalty: up to +${worst.grain_coarsening_um!.toFixed(2)} µm ferrite at ${worst.depth_mm} mm (50 % ferrite ${worst.ferrite_half_raised_K!.toFixed(1)} K hotter than without latent heat)`,
+    );
   }
   if (s.coiling) lines.push(`  coiling temperature: mean ${s.coiling.T_C.mean.toFixed(1)} °C, top surface ${s.coiling.T_C.top.toFixed(1)} °C`);
   if (s.pyrometers?.length) lines.push("  pyrometers (top surface): " + s.pyrometers.map((p) => `${p.position_m} m ${p.T_C.toFixed(1)} °C`).join(", "));
